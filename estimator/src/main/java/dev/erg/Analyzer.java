@@ -1,0 +1,30 @@
+package dev.erg;
+
+import dev.erg.graph.Graph;
+import dev.erg.graph.GraphBuilder;
+import dev.erg.onnx.OnnxModel;
+import dev.erg.onnx.OnnxReader;
+import dev.erg.shape.ShapeInference;
+import dev.erg.workload.ModelWorkload;
+import dev.erg.workload.WorkloadCounter;
+import java.nio.file.Path;
+import java.util.Map;
+
+/** The analysis pipeline in one call: read, link and order, infer shapes, count the work. */
+public final class Analyzer {
+    private Analyzer() {
+    }
+
+    /**
+     * Analyses the model in {@code file}.
+     *
+     * @param dims values for symbolic dims (e.g. {@code batch=1})
+     * @throws BadInputException when the file, the graph or a binding is unusable
+     */
+    public static ModelWorkload analyze(Path file, Map<String, Long> dims) {
+        OnnxModel model = OnnxReader.read(file);
+        Graph graph = GraphBuilder.build(model, dims);
+        ShapeInference.run(graph);
+        return WorkloadCounter.count(graph);
+    }
+}

@@ -1,0 +1,129 @@
+package dev.erg.shape;
+
+import dev.erg.BadInputException;
+import dev.erg.graph.Graph;
+import dev.erg.graph.Node;
+import dev.erg.graph.Value;
+import dev.erg.onnx.TensorDef;
+import java.util.LinkedHashSet;
+import java.util.Set;
+
+/**
+ * Forward shape and constant inference over a graph in topological order. Every value gets its
+ * element type and shape; small integer tensors that feed shapes get their values; nodes whose
+ * outputs do not depend on the runtime inputs are marked folded (worked out at analysis time).
+ */
+public final class ShapeInference {
+    private static final Set<String> NON_DETERMINISTIC = Set.of(
+            "RandomNormal", "RandomUniform", "RandomNormalLike", "RandomUniformLike", "Multinomial", "Bernoulli");
+    private static final Set<String> SHAPE_READERS = Set.of("Shape", "Size");
+
+    private final RuleTable table;
+
+    public ShapeInference(RuleTable table) {
+        this.table = table;
+    }
+
+    /** Infers every value of {@code g} with the standard rules. */
+    public static void run(Graph g) {
+        new ShapeInference(RuleTable.standard()).infer(g);
+    }
+
+    public void infer(Graph g) {
+        for (Node n : g.nodes()) {
+            inferNode(g, n);
+        }
+    }
+
+    private void inferNode(Graph g, Node n) {
+        if (!n.domain().isEmpty()) {
+            n.setStatus(Node.Status.UNMODELLED);
+            n.setNote("operator domain '" + n.domain() + "' is outside the ONNX standard set");
+            return;
+        }
+        ShapeRule rule = table.get(n.opType());
+        if (rule == null) {
+            n.setStatus(Node.Status.UNMODELLED);
+            return;
+        }
+        for (Value v : n.inputs()) {
+            if (v != null && (!v.hasShape() || v.type() == null)) {
+                n.setStatus(Node.Status.UNRESOLVED);
+                return;
+            }
+        }
+        for (Value v : n.implicitInputs()) {
+            if (!v.hasShape()) {
+                n.setStatus(Node.Status.UNRESOLVED);
+                return;
+            }
+        }
+        InferContext c = new InferContext(g, n, this);
+        try {
+            rule.infer(c);
+        } catch (BadInputException e) {
+            throw e;
+        } catch (ArithmeticException e) {
+            throw c.fail("has shapes whose arithmetic overflows 64 bits");
+        } catch (RuntimeException e) {
+            throw c.fail("cannot be shaped (" + e.getClass().getSimpleName()
+                    + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
+        }
+        for (int i = 0; i < n.outputs().size(); i++) {
+            Value v = n.output(i);
+            if (v != null && !v.hasShape()) {
+                throw c.fail("has output " + i + " ('" + v.name() + "') that its rule does not define");
+            }
+        }
+        n.setStatus(Node.Status.SHAPED);
+        markConstant(n);
+    }
+
+    private static void markConstant(Node n) {
+        if (NON_DETERMINISTIC.contains(n.opType())) {
+            return;
+        }
+        boolean constant;
+        Set<TensorDef> sources = new LinkedHashSet<>();
+        if (SHAPE_READERS.contains(n.opType())) {
+            constant = true; // static shapes: the value is known whatever the input holds
+        } else if (n.opType().equals("Constant")) {
+            return; // the rule marks the stored tensor itself
+        } else {
+            constant = true;
+            int present = 0;
+            for (Value v : n.inputs()) {
+                if (v == null) {
+                    continue;
+                }
+                present++;
+                if (!v.isConstant()) {
+                    constant = false;
+                    break;
+                }
+                sources.addAll(v.sources());
+            }
+            for (Value v : n.implicitInputs()) {
+                if (!v.isConstant()) {
+                    constant = false;
+                    break;
+                }
+                sources.addAll(v.sources());
+            }
+            if (present == 0 && n.implicitInputs().isEmpty() && !n.opType().equals("ConstantOfShape")
+                    && !n.opType().equals("EyeLike")) {
+                constant = n.opType().equals("Range");
+            }
+        }
+        if (!constant) {
+            return;
+        }
+        n.setFolded(true);
+        for (Value v : n.outputs()) {
+            if (v != null) {
+                v.setConstant(true);
+                v.setSources(sources);
+            }
+        }
+    }
+}

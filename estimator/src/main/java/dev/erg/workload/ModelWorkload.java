@@ -1,0 +1,74 @@
+package dev.erg.workload;
+
+import dev.erg.graph.Graph;
+import java.util.List;
+import java.util.Map;
+
+/** The workload of a whole model: every node's work, the totals, and what erg could not model. */
+public final class ModelWorkload {
+    private final Graph graph;
+    private final List<NodeWork> nodes;
+    private final long macs;
+    private final long vectorOps;
+    private final long weightBytes;
+    private final long peakActivationBytes;
+    private final Map<String, Integer> unmodelled;
+    private final Map<String, Integer> unresolved;
+
+    ModelWorkload(Graph graph, List<NodeWork> nodes, long macs, long vectorOps, long weightBytes,
+                  long peakActivationBytes, Map<String, Integer> unmodelled, Map<String, Integer> unresolved) {
+        this.graph = graph;
+        this.nodes = List.copyOf(nodes);
+        this.macs = macs;
+        this.vectorOps = vectorOps;
+        this.weightBytes = weightBytes;
+        this.peakActivationBytes = peakActivationBytes;
+        this.unmodelled = Map.copyOf(unmodelled);
+        this.unresolved = Map.copyOf(unresolved);
+    }
+
+    public Graph graph() {
+        return graph;
+    }
+
+    /** Every node of the main graph, in topological order. */
+    public List<NodeWork> nodes() {
+        return nodes;
+    }
+
+    public long macs() {
+        return macs;
+    }
+
+    public long vectorOps() {
+        return vectorOps;
+    }
+
+    /**
+     * Bytes of the model's stored weights: every initializer, plus Constant-node tensors that feed a
+     * MAC operator (exporters that inline weights as Constant nodes), each counted once.
+     */
+    public long weightBytes() {
+        return weightBytes;
+    }
+
+    /** The most activation bytes live at once over the topological schedule. */
+    public long peakActivationBytes() {
+        return peakActivationBytes;
+    }
+
+    /** Operator types with no rule, with the number of nodes of each (sorted by name). */
+    public Map<String, Integer> unmodelled() {
+        return new java.util.TreeMap<>(unmodelled);
+    }
+
+    /** Operator types of nodes left unshaped because of an unmodelled node upstream, with counts. */
+    public Map<String, Integer> unresolved() {
+        return new java.util.TreeMap<>(unresolved);
+    }
+
+    /** True when every node was shaped and priced by a rule. */
+    public boolean complete() {
+        return unmodelled.isEmpty() && unresolved.isEmpty();
+    }
+}

@@ -1,0 +1,274 @@
+package dev.erg.workload;
+
+import dev.erg.graph.Graph;
+import dev.erg.graph.Node;
+import dev.erg.graph.Value;
+import dev.erg.onnx.ElemType;
+import dev.erg.onnx.TensorDef;
+import java.util.ArrayList;
+import java.util.HashMap;
+import java.util.IdentityHashMap;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeMap;
+
+/** Counts every node's work over a shaped graph, and the model's totals and peak activation memory. */
+public final class WorkloadCounter {
+    private final WorkloadRules rules;
+
+    public WorkloadCounter(WorkloadRules rules) {
+        this.rules = rules;
+    }
+
+    public static ModelWorkload count(Graph g) {
+        return new WorkloadCounter(WorkloadRules.standard()).countGraph(g);
+    }
+
+    public ModelWorkload countGraph(Graph g) {
+        List<NodeWork> works = new ArrayList<>(g.nodes().size());
+        Map<String, Integer> unmodelled = new TreeMap<>();
+        Map<String, Integer> unresolved = new TreeMap<>();
+        long macs = 0;
+        long vector = 0;
+        Set<TensorDef> macWeightConstants = new LinkedHashSet<>();
+        for (Node n : g.nodes()) {
+            NodeWork w = countNode(n, unmodelled, unresolved);
+            works.add(w);
+            macs = Math.addExact(macs, w.macs());
+            vector = Math.addExact(vector, w.vectorOps());
+            if (w.kind() == Kind.MAC) {
+                WorkloadRules.Entry e = rules.get(n.opType());
+                for (int i = 1; i < n.inputCount(); i++) {
+                    Value v = n.input(i);
+                    if (v != null && v.isConstant() && !e.params.contains(i)) {
+                        macWeightConstants.addAll(v.sources());
+                    }
+                }
+            }
+        }
+        long weights = 0;
+        Set<TensorDef> counted = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
+        for (TensorDef t : g.initializers()) {
+            if (counted.add(t)) {
+                weights = Math.addExact(weights, t.bytes());
+            }
+        }
+        for (TensorDef t : macWeightConstants) {
+            if (counted.add(t)) {
+                weights = Math.addExact(weights, t.bytes());
+            }
+        }
+        long peak = peakActivation(g);
+        return new ModelWorkload(g, works, macs, vector, weights, peak, unmodelled, unresolved);
+    }
+
+    private NodeWork countNode(Node n, Map<String, Integer> unmodelled, Map<String, Integer> unresolved) {
+        NodeWork.Builder b;
+        WorkloadRules.Entry e = rules.get(n.opType());
+        if (n.status() == Node.Status.UNMODELLED || (e == null && n.status() == Node.Status.SHAPED)) {
+            unmodelled.merge(n.domain().isEmpty() ? n.opType() : n.domain() + "." + n.opType(), 1, Integer::sum);
+            b = new NodeWork.Builder(n, Kind.UNMODELLED);
+        } else if (n.status() != Node.Status.SHAPED) {
+            unresolved.merge(n.opType(), 1, Integer::sum);
+            b = new NodeWork.Builder(n, Kind.UNRESOLVED);
+        } else if (n.isFolded()) {
+            b = new NodeWork.Builder(n, Kind.FOLDED);
+        } else {
+            b = new NodeWork.Builder(n, e.kind);
+            e.rule.count(n, b);
+            addSubgraphs(n, b);
+            bytes(n, b, e);
+        }
+        b.note = n.note();
+        b.outputShapes = shapes(n);
+        if (b.precision == null) {
+            precision(n, b, e);
+        }
+        return new NodeWork(b);
+    }
+
+    /** A taken If branch or a Loop body: its nodes' arithmetic, times the trip count, joins the node's. */
+    private void addSubgraphs(Node n, NodeWork.Builder b) {
+        for (Graph sub : n.subgraphs()) {
+            ModelWorkload w = countGraph(sub);
+            b.macs = Math.addExact(b.macs, Math.multiplyExact(w.macs(), n.repeat()));
+            b.vectorOps = Math.addExact(b.vectorOps, Math.multiplyExact(w.vectorOps(), n.repeat()));
+            if (w.macs() > 0 && b.kind != Kind.MAC) {
+                b.kind = Kind.MAC;
+                b.gemmGroups = 0;
+            }
+        }
+    }
+
+    private static List<long[]> shapes(Node n) {
+        List<long[]> out = new ArrayList<>(n.outputs().size());
+        for (Value v : n.outputs()) {
+            out.add(v == null || !v.hasShape() ? null : v.dims().clone());
+        }
+        return out;
+    }
+
+    private static void bytes(Node n, NodeWork.Builder b, WorkloadRules.Entry e) {
+        if (b.kind == Kind.VIEW) {
+            return;
+        }
+        Set<TensorDef> seen = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
+        for (int i = 0; i < n.inputCount(); i++) {
+            Value v = n.input(i);
+            if (v == null || e.params.contains(i)) {
+                continue;
+            }
+            if (v.isConstant()) {
+                if (v.sources().isEmpty()) {
+                    b.weightBytes += v.bytes();
+                } else {
+                    for (TensorDef t : v.sources()) {
+                        if (seen.add(t)) {
+                            b.weightBytes += t.bytes();
+                        }
+                    }
+                }
+            } else {
+                b.inputBytes += v.bytes();
+            }
+        }
+        for (Value v : n.outputs()) {
+            if (v != null) {
+                b.outputBytes += v.bytes();
+            }
+        }
+    }
+
+    /** The element type a value really carries on the device: through DequantizeLinear to its integers. */
+    static ElemType effectiveType(Value v) {
+        if (v == null) {
+            return null;
+        }
+        if (v.isConstant() && !v.sources().isEmpty()) {
+            TensorDef big = null;
+            for (TensorDef t : v.sources()) {
+                if (big == null || t.bytes() > big.bytes()) {
+                    big = t;
+                }
+            }
+            return big.type();
+        }
+        Node p = v.producer();
+        if (p != null && p.opType().equals("DequantizeLinear") && p.input(0) != null) {
+            return effectiveType(p.input(0));
+        }
+        return v.type();
+    }
+
+    private static void precision(Node n, NodeWork.Builder b, WorkloadRules.Entry e) {
+        ElemType act = null;
+        ElemType wt = null;
+        for (int i = 0; i < n.inputCount(); i++) {
+            Value v = n.input(i);
+            if (v == null || (e != null && e.params.contains(i))) {
+                continue;
+            }
+            ElemType t = effectiveType(v);
+            if (t == null) {
+                continue;
+            }
+            if (v.isConstant()) {
+                if (wt == null || t.bits > wt.bits) {
+                    wt = t;
+                }
+                if (b.kind == Kind.MAC && i >= 2 && !n.opType().startsWith("QLinear")) {
+                    continue; // a bias does not set the multiply precision
+                }
+            } else if (act == null) {
+                act = t;
+            }
+        }
+        if (b.kind == Kind.MAC && n.opType().startsWith("QLinear")) {
+            act = effectiveType(n.input(0));
+            wt = effectiveType(n.input(3));
+        } else if (b.kind == Kind.MAC && n.inputCount() > 1) {
+            Value w1 = n.input(1);
+            wt = w1 == null ? wt : effectiveType(w1);
+        }
+        if (act == null && n.output(0) != null) {
+            act = n.output(0).type();
+        }
+        ElemType p = act;
+        if (b.kind == Kind.MAC && wt != null && (p == null || wt.bits > p.bits)) {
+            p = wt;
+        }
+        b.precision = p == null ? "unknown" : p.label;
+        b.precisionBits = p == null ? 0 : p.bits;
+        b.weightPrecision = wt == null ? null : wt.label;
+    }
+
+    /**
+     * Peak live activation bytes over the topological schedule. An activation lives from its producer
+     * (graph inputs: from the start) to its last consumer (graph outputs: to the end); a view shares
+     * its input's buffer. Constants and folded values are not activations.
+     */
+    static long peakActivation(Graph g) {
+        List<Node> nodes = g.nodes();
+        int steps = nodes.size();
+        Map<Value, Value> bufferOf = new IdentityHashMap<>();
+        Map<Value, int[]> life = new IdentityHashMap<>(); // buffer -> {start, end}
+        for (Value v : g.inputs()) {
+            bufferOf.put(v, v);
+            life.put(v, new int[] {0, 0});
+        }
+        for (Node n : nodes) {
+            boolean view = !n.isFolded() && n.status() == Node.Status.SHAPED
+                    && WorkloadRules.standard().get(n.opType()) != null
+                    && WorkloadRules.standard().get(n.opType()).kind == Kind.VIEW;
+            for (int o = 0; o < n.outputs().size(); o++) {
+                Value v = n.output(o);
+                if (v == null || v.isConstant()) {
+                    continue;
+                }
+                Value in = n.input(0);
+                if (view && o == 0 && in != null && bufferOf.containsKey(in)) {
+                    bufferOf.put(v, bufferOf.get(in));
+                } else {
+                    bufferOf.put(v, v);
+                    life.put(v, new int[] {n.index(), n.index()});
+                }
+            }
+        }
+        for (Node n : nodes) {
+            List<Value> reads = new ArrayList<>(n.inputs());
+            reads.addAll(n.implicitInputs());
+            for (Value v : reads) {
+                Value buf = v == null ? null : bufferOf.get(v);
+                if (buf != null) {
+                    int[] l = life.get(buf);
+                    l[1] = Math.max(l[1], n.index());
+                }
+            }
+        }
+        for (Value v : g.outputs()) {
+            Value buf = bufferOf.get(v);
+            if (buf != null) {
+                life.get(buf)[1] = steps;
+            }
+        }
+        long[] delta = new long[steps + 2];
+        for (Map.Entry<Value, int[]> en : life.entrySet()) {
+            long bytes = en.getKey().bytes();
+            delta[en.getValue()[0]] += bytes;
+            delta[en.getValue()[1] + 1] -= bytes;
+        }
+        long live = 0;
+        long peak = 0;
+        for (int i = 0; i <= steps; i++) {
+            live += delta[i];
+            peak = Math.max(peak, live);
+        }
+        return peak;
+    }
+
+    static Map<String, Integer> counts(Map<String, Integer> m) {
+        return new HashMap<>(m);
+    }
+}
