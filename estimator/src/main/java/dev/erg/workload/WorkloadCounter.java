@@ -142,7 +142,7 @@ public final class WorkloadCounter {
     }
 
     /** The element type a value really carries on the device: through DequantizeLinear to its integers. */
-    static ElemType effectiveType(Value v) {
+    public static ElemType effectiveType(Value v) {
         if (v == null) {
             return null;
         }

@@ -40,6 +40,18 @@ public final class WorkloadRules {
         return table.get(op);
     }
 
+    /** True when input {@code index} of {@code opType} is a parameter (shape, axes, scale), not moved data. */
+    public boolean isParameter(String opType, int index) {
+        Entry e = table.get(opType);
+        return e != null && e.params.contains(index);
+    }
+
+    /** The kind of work of {@code opType}, or null when it has no rule. */
+    public Kind kindOf(String opType) {
+        Entry e = table.get(opType);
+        return e == null ? null : e.kind;
+    }
+
     public Set<String> operators() {
         return Collections.unmodifiableSet(table.keySet());
     }

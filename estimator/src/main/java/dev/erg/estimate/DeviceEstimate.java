@@ -1,0 +1,102 @@
+package dev.erg.estimate;
+
+import dev.erg.device.DeviceProfile;
+import dev.erg.workload.ModelWorkload;
+import java.util.List;
+
+/** The estimate of one model on one device: every node, and the frame totals. */
+public final class DeviceEstimate {
+    private final ModelWorkload workload;
+    private final DeviceProfile device;
+    private final List<NodeEstimate> nodes;
+    private final Energy energy;
+    private final double latencySeconds;
+    private final boolean weightsResident;
+    private final long residentWeightBytes;
+    private final long activationPeakBytes;
+    private final long dramBytesPerFrame;
+    private final List<String> assumptions;
+
+    DeviceEstimate(ModelWorkload workload, DeviceProfile device, List<NodeEstimate> nodes, Energy energy,
+                   double latencySeconds, boolean weightsResident, long residentWeightBytes, long activationPeakBytes,
+                   long dramBytesPerFrame, List<String> assumptions) {
+        this.workload = workload;
+        this.device = device;
+        this.nodes = List.copyOf(nodes);
+        this.energy = energy;
+        this.latencySeconds = latencySeconds;
+        this.weightsResident = weightsResident;
+        this.residentWeightBytes = residentWeightBytes;
+        this.activationPeakBytes = activationPeakBytes;
+        this.dramBytesPerFrame = dramBytesPerFrame;
+        this.assumptions = List.copyOf(assumptions);
+    }
+
+    public ModelWorkload workload() {
+        return workload;
+    }
+
+    public DeviceProfile device() {
+        return device;
+    }
+
+    /** One estimate per node of the workload, in the same (topological) order. */
+    public List<NodeEstimate> nodes() {
+        return nodes;
+    }
+
+    /** Energy of one frame by destination, static energy over the frame latency included. */
+    public Energy energy() {
+        return energy;
+    }
+
+    public double energyPerFrameJoules() {
+        return energy.total();
+    }
+
+    public double latencySeconds() {
+        return latencySeconds;
+    }
+
+    /** Frames per second when frames run back to back. */
+    public double maxFps() {
+        return latencySeconds == 0 ? Double.POSITIVE_INFINITY : 1 / latencySeconds;
+    }
+
+    /**
+     * Average power at {@code fps} frames per second: the dynamic energy of each frame times the
+     * frame rate, plus static power, which is drawn all the time.
+     */
+    public double averagePowerWatts(double fps) {
+        return energy.dynamic() * fps + device.staticPowerMw() * 1e-3;
+    }
+
+    /** True when weights and peak activations fit the SRAM together: weights are loaded once, not per frame. */
+    public boolean weightsResident() {
+        return weightsResident;
+    }
+
+    /** Bytes loaded into SRAM once when the weights are resident (0 when they stream every frame). */
+    public long residentWeightBytes() {
+        return residentWeightBytes;
+    }
+
+    /** Peak live activation bytes on the device, at the deployed precision. */
+    public long activationPeakBytes() {
+        return activationPeakBytes;
+    }
+
+    public long dramBytesPerFrame() {
+        return dramBytesPerFrame;
+    }
+
+    /** Assumptions the estimate made (derived precisions, unpriced nodes, unlimited bandwidths...). */
+    public List<String> assumptions() {
+        return assumptions;
+    }
+
+    /** True when every node that should run was priced (no unmodelled or unresolved nodes). */
+    public boolean complete() {
+        return workload.complete();
+    }
+}

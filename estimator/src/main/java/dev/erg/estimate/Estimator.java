@@ -1,0 +1,660 @@
+package dev.erg.estimate;
+
+import dev.erg.BadInputException;
+import dev.erg.device.Dataflow;
+import dev.erg.device.DeviceProfile;
+import dev.erg.device.Engine;
+import dev.erg.device.Memory;
+import dev.erg.device.Precisions;
+import dev.erg.graph.Node;
+import dev.erg.graph.Value;
+import dev.erg.onnx.ElemType;
+import dev.erg.onnx.TensorDef;
+import dev.erg.workload.Kind;
+import dev.erg.workload.ModelWorkload;
+import dev.erg.workload.NodeWork;
+import dev.erg.workload.WorkloadCounter;
+import dev.erg.workload.WorkloadRules;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.HashMap;
+import java.util.IdentityHashMap;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.PriorityQueue;
+import java.util.Set;
+
+/**
+ * Prices a workload on a device profile, following docs/method.md: map each MAC node onto an
+ * engine (folds, cycles, utilisation), count SRAM and register traffic from the dataflow's reuse,
+ * place weights and activations by SRAM capacity (resident or streamed weights, spills, tiling),
+ * fuse elementwise followers, take each node's latency from its roofline bound, and split its energy
+ * by destination.
+ */
+public final class Estimator {
+    /** Elementwise operators that can run on the way out of a MAC node. */
+    static final Set<String> FUSABLE = Set.of("Relu", "Clip", "LeakyRelu", "PRelu", "Sigmoid", "Tanh",
+            "HardSigmoid", "HardSwish", "Gelu", "Swish", "Mish", "Elu", "Selu", "Softplus", "Add", "Sub", "Mul",
+            "Div", "QuantizeLinear", "DequantizeLinear", "BatchNormalization");
+    private static final double FJ = 1e-15;
+
+    private final DeviceProfile device;
+    private final WorkloadRules rules = WorkloadRules.standard();
+    private final int deployBits;
+    private final List<String> assumptions = new ArrayList<>();
+
+    private Estimator(DeviceProfile device) {
+        this.device = device;
+        this.deployBits = device.deployPrecision() == null ? 0 : Precisions.bits(device.deployPrecision());
+    }
+
+    public static DeviceEstimate estimate(ModelWorkload w, DeviceProfile device) {
+        return new Estimator(device).run(w);
+    }
+
+    // ---- element widths --------------------------------------------------------------------
+
+    private int bits(ElemType t) {
+        if (t == null) {
+            return 0;
+        }
+        return deployBits > 0 && t.isFloat() ? deployBits : t.bits;
+    }
+
+    private long bytes(long elements, int bits) {
+        return Math.multiplyExact(elements, bits) / 8 + ((elements * bits) % 8 == 0 ? 0 : 1);
+    }
+
+    /** Bytes of an activation value at its deployed width. */
+    long actBytes(Value v) {
+        if (v == null || !v.hasShape() || v.type() == null) {
+            return 0;
+        }
+        return bytes(v.elements(), bits(WorkloadCounter.effectiveType(v)));
+    }
+
+    long storedBytes(TensorDef t) {
+        return bytes(t.elements(), bits(t.type()));
+    }
+
+    private String label(String precision) {
+        if (deployBits > 0 && Precisions.isFloat(precision)) {
+            return device.deployPrecision();
+        }
+        return precision;
+    }
+
+    // ---- the run ---------------------------------------------------------------------------
+
+    private DeviceEstimate run(ModelWorkload w) {
+        List<NodeWork> works = w.nodes();
+        int n = works.size();
+        NodeEstimate[] est = new NodeEstimate[n];
+        Map<Node, Integer> pos = new IdentityHashMap<>();
+        for (int i = 0; i < n; i++) {
+            est[i] = new NodeEstimate(works.get(i));
+            pos.put(works.get(i).node(), i);
+        }
+        Engine array = device.first(Engine.Kind.MAC_ARRAY);
+        Engine vector = device.first(Engine.Kind.VECTOR);
+        if (array == null && vector == null) {
+            throw new BadInputException(device.id() + ": the profile has no engine");
+        }
+        boolean[] fusedIn = fusion(works, est, pos);
+        this.posOf = pos;
+        this.fusedInOf = fusedIn;
+        Map<Node, Set<TensorDef>> weightSources = new IdentityHashMap<>();
+        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+        long[] weightBytes = new long[n];
+        for (int i = 0; i < n; i++) {
+            NodeWork nw = works.get(i);
+            if (!runs(nw)) {
+                continue;
+            }
+            est[i].priced = true;
+            est[i].precision = label(nw.precision());
+            Set<TensorDef> src = Collections.newSetFromMap(new IdentityHashMap<>());
+            long loose = 0;
+            Node node = nw.node();
+            for (int k = 0; k < node.inputCount(); k++) {
+                Value v = node.input(k);
+                if (v == null || !v.isConstant() || rules.isParameter(node.opType(), k)) {
+                    continue;
+                }
+                if (v.sources().isEmpty()) {
+                    loose += actBytes(v);
+                } else {
+                    src.addAll(v.sources());
+                }
+            }
+            long wb = loose;
+            for (TensorDef t : src) {
+                wb += storedBytes(t);
+            }
+            weightBytes[i] = wb;
+            weightSources.put(node, src);
+            allWeights.addAll(src);
+            if (nw.kind() == Kind.MAC) {
+                mapMac(est[i], nw, array != null ? array : vector, vector, wb, fusedIn[i]);
+            } else {
+                mapVector(est[i], nw, vector != null ? vector : array, wb, fusedIn[i]);
+            }
+        }
+        long totalWeights = 0;
+        for (TensorDef t : allWeights) {
+            totalWeights += storedBytes(t);
+        }
+        Placement p = place(works, est, weightBytes, totalWeights, fusedIn, pos);
+        Energy total = Energy.ZERO;
+        double latency = 0;
+        long dramPerFrame = 0;
+        for (int i = 0; i < n; i++) {
+            if (!est[i].priced) {
+                continue;
+            }
+            finish(est[i], works.get(i), array, vector);
+            total = total.plus(est[i].energy);
+            latency += est[i].latencySeconds;
+            dramPerFrame += est[i].dramReadBytes + est[i].dramWriteBytes;
+        }
+        if (!w.complete()) {
+            assumptions.add("nodes without a rule are not priced: " + w.unmodelled().keySet()
+                    + (w.unresolved().isEmpty() ? "" : ", and nodes downstream of them: " + w.unresolved().keySet()));
+        }
+        if (device.dram().bandwidth(device.clockHz()) == Double.POSITIVE_INFINITY) {
+            assumptions.add("the profile gives no DRAM bandwidth: DRAM time is not limiting");
+        }
+        List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
+        return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
+                p.resident ? totalWeights : 0, p.activationPeak, dramPerFrame, uniq);
+    }
+
+    private static boolean runs(NodeWork w) {
+        return w.kind() == Kind.MAC || w.kind() == Kind.VECTOR || w.kind() == Kind.MOVE;
+    }
+
+    // ---- fusion ----------------------------------------------------------------------------
+
+    /**
+     * Marks elementwise followers of MAC nodes as fused. Returns, per node, whether its first
+     * activation input arrives fused (not read from SRAM). A fused-through output is not written.
+     */
+    private boolean[] fusion(List<NodeWork> works, NodeEstimate[] est, Map<Node, Integer> pos) {
+        boolean[] fusedIn = new boolean[works.size()];
+        for (int i = 0; i < works.size(); i++) {
+            NodeWork head = works.get(i);
+            if (head.kind() != Kind.MAC) {
+                continue;
+            }
+            Node cur = head.node();
+            while (true) {
+                Value out = cur.output(0);
+                if (out == null || out.isGraphOutput() || out.consumers().size() != 1) {
+                    break;
+                }
+                Node next = out.consumers().get(0);
+                Integer j = pos.get(next);
+                if (j == null || next.isFolded() || !FUSABLE.contains(next.opType())
+                        || works.get(j).kind() != Kind.VECTOR || fusedIn[j]) {
+                    break;
+                }
+                if (next.input(0) != out && !(next.inputCount() > 1 && next.input(1) == out)) {
+                    break;
+                }
+                fusedIn[j] = true;
+                est[j].fusedInto = head.name();
+                cur = next;
+            }
+        }
+        return fusedIn;
+    }
+
+    /** True when {@code v} is written by its producer straight into a fused follower. */
+    private static boolean fusedThrough(Value v, Map<Node, Integer> pos, boolean[] fusedIn) {
+        if (v.consumers().size() != 1 || v.isGraphOutput()) {
+            return false;
+        }
+        Integer j = pos.get(v.consumers().get(0));
+        return j != null && fusedIn[j];
+    }
+
+    // ---- mapping and on-chip traffic ----------------------------------------------------------
+
+    private long activationInputBytes(Node node, boolean skipFused, Value fusedValue) {
+        long b = 0;
+        for (int k = 0; k < node.inputCount(); k++) {
+            Value v = node.input(k);
+            if (v == null || v.isConstant() || rules.isParameter(node.opType(), k)) {
+                continue;
+            }
+            if (skipFused && v == fusedValue) {
+                continue;
+            }
+            b += actBytes(v);
+        }
+        return b;
+    }
+
+    private void mapMac(NodeEstimate e, NodeWork w, Engine engine, Engine vector, long weightBytes, boolean fusedIn) {
+        e.engine = engine.id();
+        long m = w.gemmM();
+        long k = w.gemmK();
+        long nn = w.gemmN();
+        long g = w.gemmGroups();
+        Node node = w.node();
+        int aBits = bits(WorkloadCounter.effectiveType(node.input(0)));
+        int wBits = node.inputCount() > 1 ? bits(WorkloadCounter.effectiveType(node.input(1))) : aBits;
+        if (node.opType().startsWith("QLinear")) {
+            wBits = bits(WorkloadCounter.effectiveType(node.input(3)));
+        }
+        int oBits = node.output(0) == null ? aBits : bits(node.output(0).type());
+        if (deployBits > 0) {
+            oBits = Math.min(oBits, Math.max(deployBits, 8));
+        }
+        double aB = aBits / 8.0;
+        double wB = wBits / 8.0;
+        double oB = oBits / 8.0;
+        double accB = engine.accumulatorBits() / 8.0;
+        long macs = w.macs();
+        boolean writesOut = !fusedThrough(node.output(0), posOf, fusedInOf);
+        if (g == 0 || engine.kind() == Engine.Kind.VECTOR) {
+            // A subgraph-carrying node or a device with no array: every MAC from SRAM, one per unit per cycle.
+            long units = engine.units();
+            e.computeCycles = ceilDiv(macs, units);
+            e.utilization = e.computeCycles == 0 ? 0 : (double) macs / (e.computeCycles * units);
+            e.sramReadBytes = Math.round(macs * (aB + wB + aB));
+            e.sramWriteBytes = Math.round(macs * aB);
+            if (engine.kind() == Engine.Kind.VECTOR) {
+                assumptions.add("the profile has no MAC array: MACs run on the vector unit without reuse");
+            }
+        } else {
+            long rows = engine.rows();
+            long cols = engine.columns();
+            Dataflow df = engine.dataflow();
+            switch (df) {
+                case WEIGHT_STATIONARY: {
+                    long foldsK = ceilDiv(k, rows);
+                    long foldsN = ceilDiv(nn, cols);
+                    e.computeCycles = g * foldsK * foldsN * m;
+                    double reads = wB * g * k * nn + aB * g * m * k * foldsN + accB * g * m * nn * (foldsK - 1);
+                    double writes = accB * g * m * nn * (foldsK - 1) + (writesOut ? oB * g * m * nn : 0);
+                    e.sramReadBytes = Math.round(reads);
+                    e.sramWriteBytes = Math.round(writes);
+                    e.registerReadBytes = Math.round(macs * (aB + wB + accB));
+                    e.registerWriteBytes = Math.round(macs * accB);
+                    break;
+                }
+                case OUTPUT_STATIONARY: {
+                    long foldsM = ceilDiv(m, rows);
+                    long foldsN = ceilDiv(nn, cols);
+                    e.computeCycles = g * foldsM * foldsN * k;
+                    double reads = aB * g * m * k * foldsN + wB * g * k * nn * foldsM;
+                    double writes = writesOut ? oB * g * m * nn : 0;
+                    e.sramReadBytes = Math.round(reads);
+                    e.sramWriteBytes = Math.round(writes);
+                    e.registerReadBytes = Math.round(macs * (aB + wB + accB));
+                    e.registerWriteBytes = Math.round(macs * accB);
+                    break;
+                }
+                case NO_REUSE:
+                default: {
+                    e.computeCycles = ceilDiv(macs, rows * cols);
+                    // Three operand-width reads (activation, weight, partial sum) and one write per MAC.
+                    e.sramReadBytes = Math.round(macs * (aB + wB + aB));
+                    e.sramWriteBytes = Math.round(macs * aB);
+                    break;
+                }
+            }
+            e.utilization = e.computeCycles == 0 ? 0 : (double) macs / ((double) e.computeCycles * rows * cols);
+        }
+        // Inputs that are not part of the product (a residual operand of a fused op is read by that op).
+        if (w.vectorOps() > 0 && vector != null) {
+            e.computeCycles = Math.max(e.computeCycles, ceilDiv(w.vectorOps(), vector.units()));
+        }
+        e.overheadSeconds = engine.layerOverheadCycles() / device.clockHz();
+    }
+
+    private void mapVector(NodeEstimate e, NodeWork w, Engine engine, long weightBytes, boolean fusedIn) {
+        e.engine = engine.id();
+        Node node = w.node();
+        Value fusedValue = fusedIn ? fusedInput(node) : null;
+        long in = activationInputBytes(node, fusedIn, fusedValue);
+        long out = 0;
+        for (Value v : node.outputs()) {
+            if (v != null && !fusedThrough(v, posOf, fusedInOf)) {
+                out += actBytes(v);
+            }
+        }
+        e.sramReadBytes = in + weightBytes;
+        e.sramWriteBytes = out;
+        e.computeCycles = ceilDiv(w.vectorOps(), engine.units());
+        e.overheadSeconds = fusedIn ? 0 : engine.layerOverheadCycles() / device.clockHz();
+    }
+
+    private static Value fusedInput(Node node) {
+        for (Value v : node.inputs()) {
+            if (v != null && v.producer() != null && !v.isConstant()) {
+                Node p = v.producer();
+                if (p.output(0) == v && v.consumers().size() == 1) {
+                    return v;
+                }
+            }
+        }
+        return null;
+    }
+
+    static long ceilDiv(long a, long b) {
+        return b <= 0 ? 0 : (a + b - 1) / b;
+    }
+
+    // The fusion state of the current run, read by the mapping helpers.
+    private Map<Node, Integer> posOf = new HashMap<>();
+    private boolean[] fusedInOf = new boolean[0];
+
+    // ---- capacity: residency, spills, tiling ---------------------------------------------------
+
+    private static final class Placement {
+        boolean resident;
+        long activationPeak;
+    }
+
+    /** A live activation buffer on the device. */
+    private static final class Buffer {
+        final Value value;
+        final long bytes;
+        int start = -1;
+        int end = -1;
+        final List<Integer> uses = new ArrayList<>();
+        boolean inDram;
+        int evictedUntil = -1;
+
+        Buffer(Value value, long bytes) {
+            this.value = value;
+            this.bytes = bytes;
+        }
+
+        int nextUseAfter(int step) {
+            for (int u : uses) {
+                if (u > step) {
+                    return u;
+                }
+            }
+            return -1;
+        }
+    }
+
+    private Placement place(List<NodeWork> works, NodeEstimate[] est, long[] weightBytes, long totalWeights,
+                            boolean[] fusedIn, Map<Node, Integer> pos) {
+        int n = works.size();
+        Map<Value, Buffer> bufOf = new IdentityHashMap<>();
+        List<Buffer> buffers = new ArrayList<>();
+        for (int i = 0; i < n; i++) {
+            NodeWork nw = works.get(i);
+            Node node = nw.node();
+            boolean view = nw.kind() == Kind.VIEW;
+            if (!runs(nw) && !view) {
+                continue;
+            }
+            for (int k = 0; k < node.inputCount(); k++) {
+                Value v = node.input(k);
+                if (v == null || v.isConstant() || rules.isParameter(node.opType(), k)) {
+                    continue;
+                }
+                Buffer b = bufOf.get(v);
+                if (b == null && v.isGraphInput()) {
+                    b = new Buffer(v, actBytes(v));
+                    b.inDram = true;
+                    bufOf.put(v, b);
+                    buffers.add(b);
+                }
+                if (b == null || (fusedIn[i] && fusedThrough(v, pos, fusedIn))) {
+                    continue;
+                }
+                if (b.start < 0) {
+                    b.start = i;
+                }
+                b.end = Math.max(b.end, i);
+                if (b.uses.isEmpty() || b.uses.get(b.uses.size() - 1) != i) {
+                    b.uses.add(i);
+                }
+            }
+            for (Value v : node.outputs()) {
+                if (v == null || v.isConstant()) {
+                    continue;
+                }
+                if (view && node.input(0) != null && bufOf.containsKey(node.input(0))) {
+                    bufOf.put(v, bufOf.get(node.input(0)));
+                    continue;
+                }
+                if (fusedThrough(v, pos, fusedIn)) {
+                    continue;
+                }
+                Buffer b = new Buffer(v, actBytes(v));
+                b.start = i;
+                b.end = i;
+                b.uses.add(i);
+                bufOf.put(v, b);
+                buffers.add(b);
+            }
+        }
+        long[] live = new long[n + 1];
+        for (Buffer b : buffers) {
+            if (b.start < 0) {
+                continue;
+            }
+            live[b.start] += b.bytes;
+            live[b.end + 1] -= b.bytes;
+        }
+        long peak = 0;
+        long run = 0;
+        for (int i = 0; i < n; i++) {
+            run += live[i];
+            live[i] = run;
+            peak = Math.max(peak, run);
+        }
+        Placement p = new Placement();
+        p.activationPeak = peak;
+        Memory sram = device.sram();
+        long cap = sram.capacityBytes();
+        p.resident = totalWeights + peak <= cap;
+        if (!p.resident) {
+            assumptions.add("weights (" + totalWeights + " B) and peak activations (" + peak + " B) exceed the SRAM ("
+                    + cap + " B): each layer streams its weights from DRAM every frame");
+        }
+        // Sweep the schedule with the live set; evict idle buffers (furthest next use first) on overflow.
+        long[] adjust = new long[n + 2];
+        long adj = 0;
+        List<Buffer> byStart = new ArrayList<>(buffers);
+        byStart.removeIf(b -> b.start < 0);
+        byStart.sort((a, b) -> Integer.compare(a.start, b.start));
+        int next = 0;
+        Set<Buffer> active = Collections.newSetFromMap(new IdentityHashMap<>());
+        PriorityQueue<Buffer> byEnd = new PriorityQueue<>((a, b) -> Integer.compare(a.end, b.end));
+        for (int i = 0; i < n; i++) {
+            adj += adjust[i];
+            while (next < byStart.size() && byStart.get(next).start <= i) {
+                Buffer b = byStart.get(next++);
+                active.add(b);
+                byEnd.add(b);
+            }
+            while (!byEnd.isEmpty() && byEnd.peek().end < i) {
+                active.remove(byEnd.poll());
+            }
+            NodeWork nw = works.get(i);
+            if (!est[i].priced) {
+                continue;
+            }
+            NodeEstimate e = est[i];
+            Node node = nw.node();
+            Set<Buffer> touched = Collections.newSetFromMap(new IdentityHashMap<>());
+            long ownBytes = 0;
+            for (Value v : node.inputs()) {
+                Buffer b = v == null ? null : bufOf.get(v);
+                if (b != null && b.uses.contains(i) && touched.add(b)) {
+                    ownBytes += b.bytes;
+                }
+            }
+            for (Value v : node.outputs()) {
+                Buffer b = v == null ? null : bufOf.get(v);
+                if (b != null && b.start == i && touched.add(b)) {
+                    ownBytes += b.bytes;
+                }
+            }
+            long wNeed = p.resident ? totalWeights : weightBytes[i];
+            long need = live[i] + adj + wNeed;
+            boolean tile = !p.resident && ownBytes + weightBytes[i] > cap;
+            if (tile) {
+                tileNode(e, node, touched, bufOf, weightBytes[i], cap, i, adjust);
+            } else {
+                if (need > cap) {
+                    List<Buffer> idle = new ArrayList<>();
+                    for (Buffer b : active) {
+                        if (!touched.contains(b) && b.evictedUntil <= i && b.nextUseAfter(i) > 0) {
+                            idle.add(b);
+                        }
+                    }
+                    final int step = i;
+                    idle.sort((a, b) -> Integer.compare(b.nextUseAfter(step), a.nextUseAfter(step)));
+                    for (Buffer b : idle) {
+                        if (need <= cap) {
+                            break;
+                        }
+                        int j = b.nextUseAfter(i);
+                        if (!b.inDram) {
+                            e.dramWriteBytes += b.bytes;
+                            b.inDram = true;
+                        }
+                        b.evictedUntil = j;
+                        adjust[j] += b.bytes;
+                        adj -= b.bytes;
+                        need -= b.bytes;
+                    }
+                }
+                // Reads of inputs that sit in DRAM: graph inputs at their first use, evicted buffers coming back.
+                for (Buffer b : touched) {
+                    if (b.start == i && !b.value.isGraphInput()) {
+                        continue;
+                    }
+                    boolean firstInputRead = b.value.isGraphInput() && b.start == i;
+                    if (firstInputRead || b.evictedUntil == i) {
+                        e.dramReadBytes += b.bytes;
+                        b.evictedUntil = -1;
+                    }
+                }
+                if (!p.resident) {
+                    e.dramReadBytes += weightBytes[i];
+                }
+            }
+            for (Value v : node.outputs()) {
+                if (v != null && v.isGraphOutput() && !tile) {
+                    e.dramWriteBytes += actBytes(v);
+                }
+            }
+        }
+        return p;
+    }
+
+    /**
+     * A layer whose working set exceeds the SRAM: keep a weight tile and stream the inputs again per
+     * tile, or keep an input tile and stream the weights again per tile, whichever moves fewer bytes.
+     * A tile may take half the SRAM; the other half buffers the streamed operand and the outputs.
+     */
+    private void tileNode(NodeEstimate e, Node node, Set<Buffer> touched, Map<Value, Buffer> bufOf, long weights,
+                          long cap, int step, long[] adjust) {
+        long in = 0;
+        long out = 0;
+        for (Buffer b : touched) {
+            if (b.start == step && !b.value.isGraphInput()) {
+                out += b.bytes;
+            } else {
+                in += b.bytes;
+                if (!b.inDram) {
+                    e.dramWriteBytes += b.bytes; // it has to leave the chip before the layer can stream it
+                    b.inDram = true;
+                }
+            }
+        }
+        long tileCap = Math.max(cap / 2, 1);
+        long passesA = Math.max(1, ceilDiv(weights, tileCap));
+        long passesB = Math.max(1, ceilDiv(in, tileCap));
+        long a = weights + passesA * in;
+        long b = in + passesB * weights;
+        if (a <= b) {
+            e.dramReadBytes += a;
+            e.tiling = "weight tiles x" + passesA + ", inputs streamed per tile";
+        } else {
+            e.dramReadBytes += b;
+            e.tiling = "input tiles x" + passesB + ", weights streamed per tile";
+        }
+        e.dramWriteBytes += out;
+        for (Buffer buf : touched) {
+            if (buf.start == step && !buf.value.isGraphInput()) {
+                buf.inDram = true;
+                int j = buf.nextUseAfter(step);
+                if (j > 0) {
+                    buf.evictedUntil = j;
+                    adjust[step + 1] -= buf.bytes;
+                    adjust[j] += buf.bytes;
+                }
+            }
+        }
+    }
+
+    // ---- latency and energy ---------------------------------------------------------------
+
+    private void finish(NodeEstimate e, NodeWork w, Engine array, Engine vector) {
+        double hz = device.clockHz();
+        e.computeSeconds = e.computeCycles / hz;
+        double sramBw = device.sram().bandwidth(hz);
+        double dramBw = device.dram().bandwidth(hz);
+        e.sramSeconds = (e.sramReadBytes + e.sramWriteBytes) / sramBw;
+        e.dramSeconds = (e.dramReadBytes + e.dramWriteBytes) / dramBw;
+        double t = e.computeSeconds;
+        e.bound = Bound.COMPUTE;
+        if (e.sramSeconds > t) {
+            t = e.sramSeconds;
+            e.bound = Bound.SRAM;
+        }
+        if (e.dramSeconds > t) {
+            t = e.dramSeconds;
+            e.bound = Bound.DRAM;
+        }
+        if (t == 0) {
+            e.bound = Bound.NONE;
+        }
+        e.latencySeconds = t + e.overheadSeconds;
+        double compute = 0;
+        String prec = e.precision;
+        if (w.macs() > 0) {
+            Engine eng = w.kind() == Kind.MAC && array != null ? array : vector;
+            compute += w.macs() * energy(eng, prec, "MAC") * FJ;
+        }
+        if (w.vectorOps() > 0) {
+            Engine eng = vector != null ? vector : array;
+            compute += w.vectorOps() * energy(eng, prec, eng == vector ? "vector op" : "MAC") * FJ;
+        }
+        Memory reg = device.registers();
+        double regJ = reg == null ? 0
+                : (e.registerReadBytes * reg.readFjPerByte() + e.registerWriteBytes * reg.writeFjPerByte()) * FJ;
+        Memory sram = device.sram();
+        double sramJ = (e.sramReadBytes * sram.readFjPerByte() + e.sramWriteBytes * sram.writeFjPerByte()) * FJ;
+        Memory dram = device.dram();
+        double dramJ = (e.dramReadBytes * dram.readFjPerByte() + e.dramWriteBytes * dram.writeFjPerByte()) * FJ;
+        double leak = device.staticPowerMw() * 1e-3 * e.latencySeconds;
+        e.energy = new Energy(compute, regJ, sramJ, dramJ, leak);
+    }
+
+    private double energy(Engine engine, String precision, String what) {
+        Precisions.Lookup l = Precisions.lookup(engine.energyFj(), precision, engine.multiplyFraction());
+        if (l == null) {
+            throw new BadInputException(device.id() + ": engine '" + engine.id() + "' lists no " + what
+                    + " energy from which " + precision + " can be derived (it lists " + engine.energyFj().keySet() + ")");
+        }
+        if (l.derived) {
+            assumptions.add(what + " energy at " + precision + " on '" + engine.id() + "' is derived from " + l.from
+                    + " by the bit-width rule (multiplier ~ bits^2, adder ~ bits; Nagel et al. 2021)");
+        }
+        return l.fj;
+    }
+}

@@ -1,0 +1,144 @@
+package dev.erg.estimate;
+
+import dev.erg.workload.NodeWork;
+
+/**
+ * What one node costs on the device: its mapping (engine, cycles, utilisation), the bytes it moves
+ * at every memory level, its latency with the bound that sets it, and its energy by destination.
+ * Nodes that do not run on the device (views, folded constants) carry zeros.
+ */
+public final class NodeEstimate {
+    final NodeWork work;
+    String engine;
+    String precision;
+    long computeCycles;
+    double utilization;
+    long registerReadBytes;
+    long registerWriteBytes;
+    long sramReadBytes;
+    long sramWriteBytes;
+    long dramReadBytes;
+    long dramWriteBytes;
+    double computeSeconds;
+    double sramSeconds;
+    double dramSeconds;
+    double overheadSeconds;
+    double latencySeconds;
+    Bound bound = Bound.NONE;
+    Energy energy = Energy.ZERO;
+    String fusedInto;
+    String tiling;
+    boolean priced;
+
+    NodeEstimate(NodeWork work) {
+        this.work = work;
+    }
+
+    public NodeWork work() {
+        return work;
+    }
+
+    public String name() {
+        return work.name();
+    }
+
+    /** The engine that runs the node, or null when it does not run on the device. */
+    public String engine() {
+        return engine;
+    }
+
+    /** The precision the node is priced at (the deployed precision when the profile sets one). */
+    public String precision() {
+        return precision;
+    }
+
+    public long computeCycles() {
+        return computeCycles;
+    }
+
+    /** MACs over (compute cycles x units) for a MAC node; 0 otherwise. */
+    public double utilization() {
+        return utilization;
+    }
+
+    public long registerReadBytes() {
+        return registerReadBytes;
+    }
+
+    public long registerWriteBytes() {
+        return registerWriteBytes;
+    }
+
+    public long sramReadBytes() {
+        return sramReadBytes;
+    }
+
+    public long sramWriteBytes() {
+        return sramWriteBytes;
+    }
+
+    public long dramReadBytes() {
+        return dramReadBytes;
+    }
+
+    public long dramWriteBytes() {
+        return dramWriteBytes;
+    }
+
+    public double computeSeconds() {
+        return computeSeconds;
+    }
+
+    public double sramSeconds() {
+        return sramSeconds;
+    }
+
+    public double dramSeconds() {
+        return dramSeconds;
+    }
+
+    public double overheadSeconds() {
+        return overheadSeconds;
+    }
+
+    /** max(compute, SRAM, DRAM time) + per-layer overhead. */
+    public double latencySeconds() {
+        return latencySeconds;
+    }
+
+    public Bound bound() {
+        return bound;
+    }
+
+    public Energy energy() {
+        return energy;
+    }
+
+    /** The MAC node this elementwise node runs fused behind, or null. */
+    public String fusedInto() {
+        return fusedInto;
+    }
+
+    /** The loop order chosen for a layer whose working set exceeds the SRAM, or null when untiled. */
+    public String tiling() {
+        return tiling;
+    }
+
+    /** True when the node runs on the device and was priced. */
+    public boolean priced() {
+        return priced;
+    }
+
+    /** MACs (or vector ops when it has none) per byte of DRAM traffic; infinite with no DRAM traffic. */
+    public double intensity() {
+        long ops = work.macs() > 0 ? work.macs() : work.vectorOps();
+        long bytes = dramReadBytes + dramWriteBytes;
+        return bytes == 0 ? Double.POSITIVE_INFINITY : (double) ops / bytes;
+    }
+
+    /** Achieved operations per second: MACs (or vector ops) over latency. */
+    public double opsPerSecond() {
+        long ops = work.macs() > 0 ? work.macs() : work.vectorOps();
+        return latencySeconds == 0 ? 0 : ops / latencySeconds;
+    }
+}
