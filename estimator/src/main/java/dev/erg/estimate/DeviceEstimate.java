@@ -13,12 +13,14 @@ public final class DeviceEstimate {
     private final double latencySeconds;
     private final boolean weightsResident;
     private final long residentWeightBytes;
+    private final long weightBytes;
     private final long activationPeakBytes;
     private final long dramBytesPerFrame;
     private final List<String> assumptions;
 
     DeviceEstimate(ModelWorkload workload, DeviceProfile device, List<NodeEstimate> nodes, Energy energy,
-                   double latencySeconds, boolean weightsResident, long residentWeightBytes, long activationPeakBytes,
+                   double latencySeconds, boolean weightsResident, long residentWeightBytes, long weightBytes,
+                   long activationPeakBytes,
                    long dramBytesPerFrame, List<String> assumptions) {
         this.workload = workload;
         this.device = device;
@@ -27,6 +29,7 @@ public final class DeviceEstimate {
         this.latencySeconds = latencySeconds;
         this.weightsResident = weightsResident;
         this.residentWeightBytes = residentWeightBytes;
+        this.weightBytes = weightBytes;
         this.activationPeakBytes = activationPeakBytes;
         this.dramBytesPerFrame = dramBytesPerFrame;
         this.assumptions = List.copyOf(assumptions);
@@ -79,6 +82,11 @@ public final class DeviceEstimate {
     /** Bytes loaded into SRAM once when the weights are resident (0 when they stream every frame). */
     public long residentWeightBytes() {
         return residentWeightBytes;
+    }
+
+    /** Bytes of the weights the device reads, at the deployed precision (resident or streamed). */
+    public long weightBytes() {
+        return weightBytes;
     }
 
     /** Peak live activation bytes on the device, at the deployed precision. */

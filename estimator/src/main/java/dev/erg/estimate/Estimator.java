@@ -167,7 +167,7 @@ public final class Estimator {
         }
         List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
-                p.resident ? totalWeights : 0, p.activationPeak, dramPerFrame, uniq);
+                p.resident ? totalWeights : 0, totalWeights, p.activationPeak, dramPerFrame, uniq);
     }
 
     private static boolean runs(NodeWork w) {
