@@ -185,19 +185,27 @@ public final class WorkloadCounter {
                 act = t;
             }
         }
+        // The second multiplicand of a MAC node sets the multiply precision whether or not it is
+        // stored; it is the node's weight only when it is constant (attention's Q x K^T reads none).
+        ElemType operand = wt;
         if (b.kind == Kind.MAC && n.opType().startsWith("QLinear")) {
             act = effectiveType(n.input(0));
-            wt = effectiveType(n.input(3));
+            Value w3 = n.input(3);
+            operand = effectiveType(w3);
+            wt = w3 != null && w3.isConstant() ? operand : wt;
         } else if (b.kind == Kind.MAC && n.inputCount() > 1) {
             Value w1 = n.input(1);
-            wt = w1 == null ? wt : effectiveType(w1);
+            if (w1 != null) {
+                operand = effectiveType(w1);
+                wt = w1.isConstant() ? operand : wt;
+            }
         }
         if (act == null && n.output(0) != null) {
             act = n.output(0).type();
         }
         ElemType p = act;
-        if (b.kind == Kind.MAC && wt != null && (p == null || wt.bits > p.bits)) {
-            p = wt;
+        if (b.kind == Kind.MAC && operand != null && (p == null || operand.bits > p.bits)) {
+            p = operand;
         }
         b.precision = p == null ? "unknown" : p.label;
         b.precisionBits = p == null ? 0 : p.bits;

@@ -96,10 +96,10 @@ public final class WorkloadRules {
         t.add("EyeLike", Kind.MOVE, none);
         t.add("Range", Kind.VECTOR, perOutput(1), 0, 1, 2);
         // Data movement: bytes moved, no arithmetic.
-        for (String op : new String[] {"Transpose", "Concat", "Split", "DepthToSpace", "SpaceToDepth", "Compress",
-            "Trilu"}) {
+        for (String op : new String[] {"Transpose", "Split", "DepthToSpace", "SpaceToDepth", "Compress", "Trilu"}) {
             t.add(op, Kind.MOVE, none, 1);
         }
+        t.add("Concat", Kind.MOVE, none); // variadic: every input is data
         t.add("Slice", Kind.MOVE, none, 1, 2, 3, 4);
         t.add("Gather", Kind.MOVE, none, 1);
         t.add("GatherElements", Kind.MOVE, none, 1);
@@ -116,7 +116,7 @@ public final class WorkloadRules {
         t.add("Upsample", Kind.VECTOR, WorkloadRules::resize, 1);
         // Elementwise: one op per output element, transcendental ones more.
         for (String op : new String[] {"Add", "Sub", "Mul", "Div", "Relu", "Neg", "Abs", "Sign", "Floor", "Ceil",
-            "Round", "Max", "Min", "LeakyRelu", "PRelu", "ThresholdedRelu", "Shrink", "Equal", "Less", "Greater",
+            "Round", "LeakyRelu", "PRelu", "ThresholdedRelu", "Shrink", "Equal", "Less", "Greater",
             "LessOrEqual", "GreaterOrEqual", "And", "Or", "Xor", "Not", "Where", "Mod", "BitShift", "BitwiseAnd",
             "BitwiseOr", "BitwiseXor", "BitwiseNot", "IsNaN", "IsInf", "Cast", "CastLike"}) {
             t.add(op, Kind.VECTOR, perOutput(1));
@@ -124,6 +124,8 @@ public final class WorkloadRules {
         t.add("Clip", Kind.VECTOR, perOutput(1), 1, 2);
         t.add("Sum", Kind.VECTOR, WorkloadRules::variadic);
         t.add("Mean", Kind.VECTOR, WorkloadRules::variadic);
+        t.add("Max", Kind.VECTOR, WorkloadRules::variadic);
+        t.add("Min", Kind.VECTOR, WorkloadRules::variadic);
         for (String op : new String[] {"Exp", "Log", "Sigmoid", "Tanh", "Erf", "Sqrt", "Reciprocal", "Pow", "Sin",
             "Cos", "Tan", "Asin", "Acos", "Atan", "Sinh", "Cosh", "Asinh", "Acosh", "Atanh"}) {
             t.add(op, Kind.VECTOR, perOutput(TRANSCENDENTAL));
