@@ -1,0 +1,80 @@
+package dev.erg.budget;
+
+import java.util.ArrayList;
+import java.util.List;
+
+/** The one result model every report reads: all model x device pairs, their checks and diffs. */
+public final class GateResult {
+    private final List<PairResult> pairs;
+    private final Budget budget;
+    private final Double maxGrowthPercent;
+    private final String baselineFile;
+    private final boolean baselineFound;
+
+    GateResult(List<PairResult> pairs, Budget budget, Double maxGrowthPercent, String baselineFile,
+               boolean baselineFound) {
+        this.pairs = List.copyOf(pairs);
+        this.budget = budget;
+        this.maxGrowthPercent = maxGrowthPercent;
+        this.baselineFile = baselineFile;
+        this.baselineFound = baselineFound;
+    }
+
+    public List<PairResult> pairs() {
+        return pairs;
+    }
+
+    public Budget budget() {
+        return budget;
+    }
+
+    /** The allowed growth over the baseline, in percent, or null when growth is not checked. */
+    public Double maxGrowthPercent() {
+        return maxGrowthPercent;
+    }
+
+    /** The baseline file as configured, or null when none is configured. */
+    public String baselineFile() {
+        return baselineFile;
+    }
+
+    public boolean baselineFound() {
+        return baselineFound;
+    }
+
+    /** A sentence for the log when a baseline is configured but missing, else null. */
+    public String baselineNote() {
+        if (baselineFile == null || baselineFound) {
+            return null;
+        }
+        return "no baseline at " + baselineFile + ": growth is not checked; create it with 'mvn erg:baseline'"
+                + " (or 'erg check ... --write-baseline') and commit it";
+    }
+
+    public List<Check> failures() {
+        List<Check> out = new ArrayList<>();
+        for (PairResult p : pairs) {
+            for (Check c : p.checks()) {
+                if (!c.passed()) {
+                    out.add(c);
+                }
+            }
+        }
+        return out;
+    }
+
+    public boolean passed() {
+        return failures().isEmpty();
+    }
+
+    /** Every violation, one per line, for the build failure. */
+    public String failureMessage() {
+        List<Check> f = failures();
+        StringBuilder b = new StringBuilder();
+        b.append(f.size()).append(f.size() == 1 ? " budget violation:" : " budget violations:");
+        for (Check c : f) {
+            b.append("\n  - ").append(c.message());
+        }
+        return b.toString();
+    }
+}
