@@ -12,11 +12,11 @@ import java.util.List;
 import java.util.Map;
 
 /** Small models of known structure for the estimator's tests, written with the project's ONNX writer. */
-final class Models {
+public final class Models {
     private Models() {
     }
 
-    static ModelWorkload analyze(OnnxWriter.Graph g) {
+    public static ModelWorkload analyze(OnnxWriter.Graph g) {
         try {
             Path dir = Files.createTempDirectory("erg-est");
             Path file = dir.resolve(g.toString().hashCode() + ".onnx");
@@ -31,7 +31,7 @@ final class Models {
     }
 
     /** One Conv: input 1 x c x h x w, weight k x (c/group) x r x r, stride 1, "same" padding. */
-    static OnnxWriter.Graph conv(long c, long h, long w, long k, long r, long group) {
+    public static OnnxWriter.Graph conv(long c, long h, long w, long k, long r, long group) {
         long pad = r / 2;
         return new OnnxWriter.Graph("conv")
                 .input("x", ElemType.FLOAT, 1, c, h, w)
@@ -42,7 +42,7 @@ final class Models {
     }
 
     /** x [m, k] times a weight [k, n]. */
-    static OnnxWriter.Graph matmul(long m, long k, long n) {
+    public static OnnxWriter.Graph matmul(long m, long k, long n) {
         return new OnnxWriter.Graph("matmul")
                 .input("x", ElemType.FLOAT, m, k)
                 .weight("w", ElemType.FLOAT, k, n)

@@ -11,28 +11,28 @@ import java.util.Map;
  * Hand-set device profiles for the estimator's tests. The numbers are the round ones of the worked
  * examples in docs/method.md (invented for the examples, not a real device) unless a test says otherwise.
  */
-final class TestDevice {
-    String deploy = "int8";
-    double clockMhz = 100;
-    int rows = 8;
-    int columns = 8;
-    Dataflow dataflow = Dataflow.WEIGHT_STATIONARY;
-    double macFj = 100;
-    double vectorFj = 10;
-    int lanes = 16;
-    long arrayOverhead = 0;
-    double regRead = 5;
-    double regWrite = 5;
-    long sramBytes = 64 * 1024;
-    double sramRead = 50;
-    double sramWrite = 60;
-    double sramBytesPerCycle = 16;
-    double dramFj = 20_000;
-    double dramBytesPerSecond = 1e9;
-    double staticMw = 1;
-    boolean registers = true;
+public final class TestDevice {
+    public String deploy = "int8";
+    public double clockMhz = 100;
+    public int rows = 8;
+    public int columns = 8;
+    public Dataflow dataflow = Dataflow.WEIGHT_STATIONARY;
+    public double macFj = 100;
+    public double vectorFj = 10;
+    public int lanes = 16;
+    public long arrayOverhead = 0;
+    public double regRead = 5;
+    public double regWrite = 5;
+    public long sramBytes = 64 * 1024;
+    public double sramRead = 50;
+    public double sramWrite = 60;
+    public double sramBytesPerCycle = 16;
+    public double dramFj = 20_000;
+    public double dramBytesPerSecond = 1e9;
+    public double staticMw = 1;
+    public boolean registers = true;
 
-    DeviceProfile build() {
+    public DeviceProfile build() {
         Engine array = new Engine("mac-array", Engine.Kind.MAC_ARRAY, rows, columns, 0, dataflow,
                 Map.of("int8", macFj), 0.2 / 0.23, 32, arrayOverhead);
         Engine vector = new Engine("vector", Engine.Kind.VECTOR, 0, 0, lanes, null, Map.of("int8", vectorFj),
