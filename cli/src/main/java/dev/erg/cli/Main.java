@@ -61,7 +61,8 @@ public final class Main implements Callable<Integer> {
         }
     }
 
-    private static int failure(Throwable e, PrintWriter err) {
+    /** Prints the one line for {@code e} and returns its exit code. */
+    static int failure(Throwable e, PrintWriter err) {
         if (e instanceof BadInputException) {
             err.println("erg: " + oneLine(e.getMessage()));
             return BAD_INPUT;

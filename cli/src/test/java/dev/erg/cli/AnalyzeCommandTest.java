@@ -1,5 +1,6 @@
 package dev.erg.cli;
 
+import static org.junit.jupiter.api.Assertions.assertArrayEquals;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
@@ -159,5 +160,29 @@ class AnalyzeCommandTest {
         assertTrue(r.out.contains("Unresolved operators: Relu x1"), r.out);
         JsonNode root = new ObjectMapper().readTree(json.toFile());
         assertEquals(false, root.at("/totals/complete").asBoolean());
+    }
+
+    @Test
+    void twoRunsWriteTheSameBytes() throws Exception {
+        Path model = tinyConv("tiny.onnx");
+        Path a = dir.resolve("a.json");
+        Path b = dir.resolve("b.json");
+        CliRun first = CliRun.of("analyze", model.toString(), "--dim", "batch=1", "--json", a.toString());
+        CliRun second = CliRun.of("analyze", model.toString(), "--dim", "batch=1", "--json", b.toString());
+        assertEquals(0, first.code, first.toString());
+        assertEquals(0, second.code, second.toString());
+        assertArrayEquals(Files.readAllBytes(a), Files.readAllBytes(b));
+        assertEquals(first.out.replace(a.toString(), "X"), second.out.replace(b.toString(), "X"));
+    }
+
+    @Test
+    void internalErrorsAreOneLineWithExitThree() {
+        java.io.StringWriter err = new java.io.StringWriter();
+        int code = Main.failure(new IllegalStateException("broken rule\n\tat somewhere"), new java.io.PrintWriter(err, true));
+        assertEquals(3, code);
+        assertEquals("erg: internal error: IllegalStateException: broken rule" + System.lineSeparator(), err.toString());
+        err.getBuffer().setLength(0);
+        assertEquals(2, Main.failure(new dev.erg.BadInputException("m.onnx: bad"), new java.io.PrintWriter(err, true)));
+        assertEquals("erg: m.onnx: bad" + System.lineSeparator(), err.toString());
     }
 }

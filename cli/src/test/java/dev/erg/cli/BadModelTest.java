@@ -89,7 +89,7 @@ class BadModelTest {
 
     @Test
     void randomBytes() throws IOException {
-        Random rnd = new Random(20240601L); // fixed seed: the same bytes on every run
+        Random rnd = new Random(20240601L); // a fixed start value: the same bytes on every run
         for (int i = 0; i < 20; i++) {
             byte[] b = new byte[1 + rnd.nextInt(4096)];
             rnd.nextBytes(b);
