@@ -104,6 +104,7 @@ public final class OnnxWriter {
         final long[] dims;
         byte[] raw;
         long streamedBytes = -1;
+        boolean claimedOnly;
         Map<String, String> external;
 
         public Tensor(String name, ElemType type, long... dims) {
@@ -132,9 +133,13 @@ public final class OnnxWriter {
             return this;
         }
 
-        /** A payload whose raw_data length field claims {@code bytes} (for hostile-input tests). */
+        /**
+         * A raw_data field whose length claims {@code bytes} but carries no payload (for hostile-input
+         * tests): the enclosing messages' lengths stay true, only this one lies.
+         */
         public Tensor claimedRaw(long bytes) {
             this.streamedBytes = bytes;
+            this.claimedOnly = true;
             return this;
         }
 
@@ -180,6 +185,8 @@ public final class OnnxWriter {
                     n += bytesField(13, stringField(1, e.getKey()) + stringField(2, e.getValue()));
                 }
                 n += varintField(14, 1);
+            } else if (claimedOnly) {
+                n += tagSize(9) + CodedOutputStream.computeUInt64SizeNoTag(streamedBytes);
             } else if (raw != null || streamedBytes >= 0) {
                 n += tagSize(9) + CodedOutputStream.computeUInt64SizeNoTag(payloadLength()) + payloadLength();
             }
@@ -201,6 +208,9 @@ public final class OnnxWriter {
                     writeString(out, 2, e.getValue());
                 }
                 writeVarint(out, 14, 1);
+            } else if (claimedOnly) {
+                out.writeTag(9, 2);
+                out.writeUInt64NoTag(streamedBytes);
             } else if (raw != null) {
                 out.writeTag(9, 2);
                 out.writeUInt64NoTag(raw.length);

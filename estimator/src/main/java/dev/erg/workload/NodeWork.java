@@ -42,7 +42,8 @@ public final class NodeWork {
         this.gemmK = b.gemmK;
         this.gemmN = b.gemmN;
         this.gemmGroups = b.gemmGroups;
-        this.outputShapes = List.copyOf(b.outputShapes);
+        // An unknown shape is null, which List.copyOf would reject.
+        this.outputShapes = java.util.Collections.unmodifiableList(new java.util.ArrayList<>(b.outputShapes));
         this.note = b.note;
     }
 

@@ -1,5 +1,6 @@
 package dev.erg.workload;
 
+import dev.erg.BadInputException;
 import dev.erg.graph.Graph;
 import dev.erg.graph.Node;
 import dev.erg.graph.Value;
@@ -34,10 +35,19 @@ public final class WorkloadCounter {
         long vector = 0;
         Set<TensorDef> macWeightConstants = new LinkedHashSet<>();
         for (Node n : g.nodes()) {
-            NodeWork w = countNode(n, unmodelled, unresolved);
+            NodeWork w;
+            try {
+                w = countNode(n, unmodelled, unresolved);
+            } catch (ArithmeticException e) {
+                throw overflow(g, "node " + n.label() + " has a MAC, operation or byte count that overflows 64 bits");
+            }
             works.add(w);
-            macs = Math.addExact(macs, w.macs());
-            vector = Math.addExact(vector, w.vectorOps());
+            try {
+                macs = Math.addExact(macs, w.macs());
+                vector = Math.addExact(vector, w.vectorOps());
+            } catch (ArithmeticException e) {
+                throw overflow(g, "the model's total MACs or vector ops overflow 64 bits at node " + n.label());
+            }
             if (w.kind() == Kind.MAC) {
                 WorkloadRules.Entry e = rules.get(n.opType());
                 for (int i = 1; i < n.inputCount(); i++) {
@@ -49,19 +59,28 @@ public final class WorkloadCounter {
             }
         }
         long weights = 0;
-        Set<TensorDef> counted = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
-        for (TensorDef t : g.initializers()) {
-            if (counted.add(t)) {
-                weights = Math.addExact(weights, t.bytes());
+        long peak;
+        try {
+            Set<TensorDef> counted = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
+            for (TensorDef t : g.initializers()) {
+                if (counted.add(t)) {
+                    weights = Math.addExact(weights, t.bytes());
+                }
             }
-        }
-        for (TensorDef t : macWeightConstants) {
-            if (counted.add(t)) {
-                weights = Math.addExact(weights, t.bytes());
+            for (TensorDef t : macWeightConstants) {
+                if (counted.add(t)) {
+                    weights = Math.addExact(weights, t.bytes());
+                }
             }
+            peak = peakActivation(g);
+        } catch (ArithmeticException e) {
+            throw overflow(g, "the model's weight or activation bytes overflow 64 bits");
         }
-        long peak = peakActivation(g);
         return new ModelWorkload(g, works, macs, vector, weights, peak, unmodelled, unresolved);
+    }
+
+    private static BadInputException overflow(Graph g, String what) {
+        return new BadInputException(g.fileLabel() + ": " + what);
     }
 
     private NodeWork countNode(Node n, Map<String, Integer> unmodelled, Map<String, Integer> unresolved) {

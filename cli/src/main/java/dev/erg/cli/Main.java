@@ -1,0 +1,102 @@
+package dev.erg.cli;
+
+import dev.erg.BadInputException;
+import java.io.IOException;
+import java.io.InputStream;
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+import java.util.Properties;
+import java.util.concurrent.Callable;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+
+/**
+ * The {@code erg} command. Exit codes: 0 success; 1 a budget breach (reserved); 2 bad input or bad
+ * options, with one line on stderr; 3 an internal error, with one line on stderr.
+ */
+@Command(name = "erg", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
+        description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node.",
+        subcommands = {AnalyzeCommand.class, CommandLine.HelpCommand.class})
+public final class Main implements Callable<Integer> {
+    public static final int OK = 0;
+    /** Reserved for budget breaches. */
+    public static final int BUDGET_BREACH = 1;
+    public static final int BAD_INPUT = 2;
+    public static final int INTERNAL_ERROR = 3;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        throw new CommandLine.ParameterException(spec.commandLine(), "no command given");
+    }
+
+    public static void main(String[] args) {
+        PrintWriter out = new PrintWriter(System.out, true);
+        PrintWriter err = new PrintWriter(System.err, true);
+        int code = execute(args, out, err);
+        out.flush();
+        err.flush();
+        System.exit(code);
+    }
+
+    /** Runs {@code erg} with {@code args}, printing to {@code out} and {@code err}; returns the exit code. */
+    public static int execute(String[] args, PrintWriter out, PrintWriter err) {
+        try {
+            CommandLine cl = new CommandLine(new Main());
+            cl.setOut(out);
+            cl.setErr(err);
+            cl.setParameterExceptionHandler((e, a) -> {
+                err.println("erg: " + oneLine(e.getMessage()) + usageHint(e.getCommandLine()));
+                return BAD_INPUT;
+            });
+            cl.setExecutionExceptionHandler((e, c, parsed) -> failure(e, err));
+            return cl.execute(args);
+        } catch (Throwable t) { // e.g. an Error outside picocli's handlers: still one line, never a trace
+            return failure(t, err);
+        } finally {
+            out.flush();
+            err.flush();
+        }
+    }
+
+    /** Prints the one line for {@code e} and returns its exit code. */
+    static int failure(Throwable e, PrintWriter err) {
+        if (e instanceof BadInputException) {
+            err.println("erg: " + oneLine(e.getMessage()));
+            return BAD_INPUT;
+        }
+        err.println("erg: internal error: " + e.getClass().getSimpleName()
+                + (e.getMessage() == null ? "" : ": " + oneLine(e.getMessage())));
+        return INTERNAL_ERROR;
+    }
+
+    private static String usageHint(CommandLine c) {
+        String name = c == null ? "erg" : c.getCommandSpec().qualifiedName();
+        return name.equals("erg") ? " (see 'erg --help')" : " (see '" + name + " --help')";
+    }
+
+    static String oneLine(String s) {
+        if (s == null || s.isBlank()) {
+            return "no detail";
+        }
+        String t = s.strip();
+        int nl = t.indexOf('\n');
+        return (nl < 0 ? t : t.substring(0, nl)).replace('\r', ' ').strip();
+    }
+
+    /** The version from the filtered resource written at build time. */
+    static final class Version implements CommandLine.IVersionProvider {
+        @Override
+        public String[] getVersion() throws IOException {
+            Properties p = new Properties();
+            try (InputStream in = Main.class.getResourceAsStream("version.properties")) {
+                if (in != null) {
+                    p.load(new java.io.InputStreamReader(in, StandardCharsets.UTF_8));
+                }
+            }
+            return new String[] {"erg " + p.getProperty("version", "unknown")};
+        }
+    }
+}

@@ -1,0 +1,205 @@
+package dev.erg.report;
+
+import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.Kind;
+import dev.erg.workload.ModelWorkload;
+import dev.erg.workload.NodeWork;
+import java.util.ArrayList;
+import java.util.Comparator;
+import java.util.List;
+import java.util.Map;
+
+/**
+ * A plain-text console rendering of a {@link ModelWorkload}: a header with the model, the nodes with
+ * the most MACs, the totals and what erg could not model. No colours, "\n" line ends, no trailing
+ * blanks, columns aligned with spaces.
+ */
+public final class AnalysisTable {
+    /** How many nodes the table lists unless told otherwise. */
+    public static final int DEFAULT_TOP = 15;
+    /** Node names longer than this are shortened in the middle with "...". */
+    static final int NAME_WIDTH = 32;
+    private static final String GAP = "  ";
+
+    private AnalysisTable() {
+    }
+
+    public static String render(ModelWorkload w) {
+        return render(w, DEFAULT_TOP);
+    }
+
+    /** The table with the {@code top} nodes of most MACs (ties in topological order). */
+    public static String render(ModelWorkload w, int top) {
+        if (top < 0) {
+            throw new IllegalArgumentException("top must be 0 or more, not " + top);
+        }
+        StringBuilder out = new StringBuilder();
+        header(out, w);
+        out.append('\n');
+        nodes(out, w, top);
+        out.append('\n');
+        totals(out, w);
+        out.append('\n').append(AnalysisJson.NOTICE).append('\n');
+        return out.toString();
+    }
+
+    private static void header(StringBuilder out, ModelWorkload w) {
+        OnnxModel m = Format.model(w);
+        String producer = m == null ? "" : (m.producerName() + " " + m.producerVersion()).trim();
+        out.append("model: ").append(m == null ? "?" : m.file().toString())
+                .append(GAP).append("producer: ").append(producer.isEmpty() ? "(none)" : producer)
+                .append(GAP).append("opset: ").append(m == null ? 0 : m.defaultOpset());
+        if (m != null) {
+            out.append(GAP).append("IR: ").append(m.irVersion());
+        }
+        out.append('\n');
+        Map<String, Long> dims = Format.dims(w);
+        if (!dims.isEmpty()) {
+            StringBuilder d = new StringBuilder();
+            for (Map.Entry<String, Long> e : dims.entrySet()) {
+                d.append(d.length() == 0 ? "" : ", ").append(e.getKey()).append('=').append(e.getValue());
+            }
+            out.append("dims: ").append(d).append('\n');
+        }
+    }
+
+    /** The nodes ranked by MACs, most first; the sort is stable, so ties keep their topological order. */
+    static List<NodeWork> ranked(ModelWorkload w, int top) {
+        List<NodeWork> all = new ArrayList<>(w.nodes());
+        all.sort(Comparator.comparingLong(NodeWork::macs).reversed());
+        return all.subList(0, Math.min(top, all.size()));
+    }
+
+    private static void nodes(StringBuilder out, ModelWorkload w, int top) {
+        List<NodeWork> shown = ranked(w, top);
+        int total = w.nodes().size();
+        if (shown.isEmpty()) {
+            out.append(total == 0 ? "The graph has no nodes.\n" : "No nodes listed (top 0 of " + total + ").\n");
+            return;
+        }
+        out.append(shown.size() == total ? "All " + total + " nodes" : "Top " + shown.size() + " of " + total + " nodes")
+                .append(" by MACs\n");
+        Table t = new Table(">#", "node", "op", "output shape", ">MACs", ">vector ops", ">weights", ">in", ">out",
+                "precision");
+        int rank = 0;
+        for (NodeWork n : shown) {
+            t.row(Integer.toString(++rank), shorten(n.name(), NAME_WIDTH), n.opType(), outputShape(n),
+                    Format.count(n.macs()), Format.count(n.vectorOps()), Format.bytes(n.weightBytes()),
+                    Format.bytes(n.inputBytes()), Format.bytes(n.outputBytes()), n.precision());
+        }
+        t.appendTo(out, "");
+    }
+
+    private static void totals(StringBuilder out, ModelWorkload w) {
+        out.append("Totals\n");
+        Table t = new Table("", ">", "");
+        t.row("MACs", Format.count(w.macs()), "(" + Format.exact(w.macs()) + ")");
+        t.row("vector ops", Format.count(w.vectorOps()), "(" + Format.exact(w.vectorOps()) + ")");
+        t.row("weights", Format.bytes(w.weightBytes()), "(" + Format.exact(w.weightBytes()) + " bytes)");
+        t.row("peak activations", Format.bytes(w.peakActivationBytes()),
+                "(" + Format.exact(w.peakActivationBytes()) + " bytes)");
+        t.row("nodes", Integer.toString(w.nodes().size()),
+                "(" + Format.countKind(w, Kind.FOLDED) + " folded, " + plural(Format.countKind(w, Kind.VIEW), "view") + ")");
+        t.appendBodyTo(out, "  ");
+        out.append("Unmodelled operators: ").append(opCounts(w.unmodelled())).append('\n');
+        out.append("Unresolved operators: ").append(opCounts(w.unresolved())).append('\n');
+    }
+
+    private static String plural(int n, String word) {
+        return n + " " + word + (n == 1 ? "" : "s");
+    }
+
+    private static String opCounts(Map<String, Integer> sorted) {
+        if (sorted.isEmpty()) {
+            return "none";
+        }
+        StringBuilder b = new StringBuilder();
+        for (Map.Entry<String, Integer> e : sorted.entrySet()) {
+            b.append(b.length() == 0 ? "" : ", ").append(e.getKey()).append(" x").append(e.getValue());
+        }
+        return b.toString();
+    }
+
+    /** The first output's shape, with "+N" when the node has N more outputs. */
+    private static String outputShape(NodeWork n) {
+        List<long[]> s = n.outputShapes();
+        if (s.isEmpty()) {
+            return "-";
+        }
+        String first = Format.shape(s.get(0));
+        return s.size() == 1 ? first : first + " +" + (s.size() - 1);
+    }
+
+    /** {@code s} cut to {@code width} characters by replacing its middle with "...". */
+    static String shorten(String s, int width) {
+        if (s.length() <= width) {
+            return s;
+        }
+        int keep = width - 3;
+        int head = keep / 3;
+        int tail = keep - head;
+        return s.substring(0, head) + "..." + s.substring(s.length() - tail);
+    }
+
+    /** Columns of text; a header starting with '>' marks a right-aligned column. */
+    private static final class Table {
+        private final String[] headers;
+        private final boolean[] right;
+        private final List<String[]> rows = new ArrayList<>();
+
+        Table(String... headers) {
+            this.headers = new String[headers.length];
+            this.right = new boolean[headers.length];
+            for (int i = 0; i < headers.length; i++) {
+                right[i] = headers[i].startsWith(">");
+                this.headers[i] = right[i] ? headers[i].substring(1) : headers[i];
+            }
+        }
+
+        void row(String... cells) {
+            rows.add(cells);
+        }
+
+        private int[] widths(boolean withHeader) {
+            int[] w = new int[headers.length];
+            for (int i = 0; i < w.length; i++) {
+                w[i] = withHeader ? headers[i].length() : 0;
+                for (String[] r : rows) {
+                    w[i] = Math.max(w[i], r[i].length());
+                }
+            }
+            return w;
+        }
+
+        void appendTo(StringBuilder out, String indent) {
+            int[] w = widths(true);
+            line(out, indent, headers, w);
+            for (String[] r : rows) {
+                line(out, indent, r, w);
+            }
+        }
+
+        void appendBodyTo(StringBuilder out, String indent) {
+            int[] w = widths(false);
+            for (String[] r : rows) {
+                line(out, indent, r, w);
+            }
+        }
+
+        private void line(StringBuilder out, String indent, String[] cells, int[] w) {
+            StringBuilder b = new StringBuilder(indent);
+            for (int i = 0; i < cells.length; i++) {
+                if (i > 0) {
+                    b.append(GAP);
+                }
+                String pad = " ".repeat(w[i] - cells[i].length());
+                b.append(right[i] ? pad + cells[i] : cells[i] + pad);
+            }
+            int end = b.length();
+            while (end > 0 && b.charAt(end - 1) == ' ') {
+                end--;
+            }
+            out.append(b, 0, end).append('\n');
+        }
+    }
+}

@@ -1,0 +1,139 @@
+package dev.erg.report;
+
+import dev.erg.graph.Graph;
+import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.Kind;
+import dev.erg.workload.ModelWorkload;
+import dev.erg.workload.NodeWork;
+import java.util.Map;
+import java.util.TreeMap;
+
+/** Number and shape formatting shared by the report writers. */
+final class Format {
+    private static final String[] COUNT_UNITS = {"k", "M", "G", "T", "P", "E"};
+    private static final String[] BYTE_UNITS = {"KiB", "MiB", "GiB", "TiB", "PiB", "EiB"};
+
+    /** The name the JSON and the table give the default ONNX domain (stored as the empty string). */
+    static final String DEFAULT_DOMAIN = "ai.onnx";
+
+    private Format() {
+    }
+
+    /** A count with a decimal unit: 950, 1.20k, 11.6M, 116M, 1.82G. */
+    static String count(long v) {
+        return scaled(v, 1000, COUNT_UNITS, "");
+    }
+
+    /** A byte size with a binary unit: 512 B, 2.25 KiB, 44.6 MiB. */
+    static String bytes(long v) {
+        if (v < 1024) {
+            return v + " B";
+        }
+        return scaled(v, 1024, BYTE_UNITS, " ");
+    }
+
+    private static String scaled(long v, long base, String[] units, String sep) {
+        if (v < base) {
+            return Long.toString(v);
+        }
+        double x = (double) v / base;
+        int u = 0;
+        while (true) {
+            String s = threeDigits(x);
+            if (Double.parseDouble(s) >= 1000 && u + 1 < units.length) {
+                x /= base;
+                u++;
+                continue;
+            }
+            return s + sep + units[u];
+        }
+    }
+
+    /**
+     * About three significant digits: 1.23, 12.3, 123 (and 1000 or more as whole numbers), rounded
+     * half up. Formatted by hand: java.util.Formatter costs a cold JVM tens of milliseconds.
+     */
+    static String threeDigits(double x) {
+        long hundredths = Math.round(x * 100);
+        if (hundredths < 1000) {
+            return fixed(hundredths, 2);
+        }
+        long tenths = Math.round(x * 10);
+        if (tenths < 1000) {
+            return fixed(tenths, 1);
+        }
+        return Long.toString(Math.round(x));
+    }
+
+    /** {@code scaled} / 10^decimals with exactly {@code decimals} digits after the point. */
+    private static String fixed(long scaled, int decimals) {
+        long unit = decimals == 1 ? 10 : 100;
+        String frac = Long.toString(scaled % unit);
+        while (frac.length() < decimals) {
+            frac = "0" + frac;
+        }
+        return (scaled / unit) + "." + frac;
+    }
+
+    /** A whole number with thousands separators: 1,819,066,368. */
+    static String exact(long v) {
+        String digits = Long.toString(v);
+        int sign = v < 0 ? 1 : 0;
+        StringBuilder b = new StringBuilder(digits.length() + digits.length() / 3);
+        for (int i = 0; i < digits.length(); i++) {
+            int left = digits.length() - i;
+            if (i > sign && left % 3 == 0) {
+                b.append(',');
+            }
+            b.append(digits.charAt(i));
+        }
+        return b.toString();
+    }
+
+    /** A shape as 1x64x56x56; "scalar" for rank 0, "?" when unknown. */
+    static String shape(long[] dims) {
+        if (dims == null) {
+            return "?";
+        }
+        if (dims.length == 0) {
+            return "scalar";
+        }
+        StringBuilder b = new StringBuilder();
+        for (int i = 0; i < dims.length; i++) {
+            b.append(i == 0 ? "" : "x").append(dims[i]);
+        }
+        return b.toString();
+    }
+
+    /** The number of nodes of kind {@code k}. */
+    static int countKind(ModelWorkload w, Kind k) {
+        int n = 0;
+        for (NodeWork nw : w.nodes()) {
+            if (nw.kind() == k) {
+                n++;
+            }
+        }
+        return n;
+    }
+
+    static OnnxModel model(ModelWorkload w) {
+        Graph g = w.graph();
+        return g == null ? null : g.model();
+    }
+
+    /** Opset per domain, sorted by domain name, the default domain shown as {@value #DEFAULT_DOMAIN}. */
+    static Map<String, Long> opsets(OnnxModel m) {
+        Map<String, Long> out = new TreeMap<>();
+        if (m != null) {
+            for (Map.Entry<String, Long> e : m.opsets().entrySet()) {
+                out.put(e.getKey().isEmpty() ? DEFAULT_DOMAIN : e.getKey(), e.getValue());
+            }
+        }
+        return out;
+    }
+
+    /** The symbolic dims bound for this analysis, sorted by name. */
+    static Map<String, Long> dims(ModelWorkload w) {
+        return w.graph() == null ? new TreeMap<>() : new TreeMap<>(w.graph().boundDims());
+    }
+}
