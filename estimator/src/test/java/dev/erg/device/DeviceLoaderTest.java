@@ -179,6 +179,14 @@ class DeviceLoaderTest {
         assertEquals(1024 * 1024, y.sram().capacityBytes());
     }
 
+    @Test
+    void theReferenceShowsTheExampleFileVerbatim() throws Exception {
+        Path root = TestFiles.repoRoot();
+        String doc = Files.readString(root.resolve("docs/profiles.md"), StandardCharsets.UTF_8);
+        String example = Files.readString(root.resolve("docs/examples/example-device.yaml"), StandardCharsets.UTF_8);
+        assertTrue(doc.contains("```yaml\n" + example + "```"), "docs/profiles.md must embed example-device.yaml");
+    }
+
     static String describe(DeviceProfile p) {
         StringBuilder b = new StringBuilder();
         b.append(p.name()).append('|').append(p.description()).append('|').append(p.clockMhz()).append('|')
