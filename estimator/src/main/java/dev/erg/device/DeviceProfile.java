@@ -1,5 +1,7 @@
 package dev.erg.device;
 
+import java.util.Collections;
+import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 
@@ -7,6 +9,7 @@ import java.util.Map;
 public final class DeviceProfile {
     private final String id;
     private final String name;
+    private final String description;
     private final double clockMhz;
     private final List<Engine> engines;
     private final Memory registers;
@@ -18,8 +21,16 @@ public final class DeviceProfile {
 
     public DeviceProfile(String id, String name, double clockMhz, List<Engine> engines, Memory registers, Memory sram,
                          Memory dram, double staticPowerMw, String deployPrecision, Map<String, String> sources) {
+        this(id, name, null, clockMhz, engines, registers, sram, dram, staticPowerMw, deployPrecision, sources);
+    }
+
+    /** As above, with the profile's free-text description (or null). */
+    public DeviceProfile(String id, String name, String description, double clockMhz, List<Engine> engines,
+                         Memory registers, Memory sram, Memory dram, double staticPowerMw, String deployPrecision,
+                         Map<String, String> sources) {
         this.id = id;
         this.name = name;
+        this.description = description;
         this.clockMhz = clockMhz;
         this.engines = List.copyOf(engines);
         this.registers = registers;
@@ -27,7 +38,7 @@ public final class DeviceProfile {
         this.dram = dram;
         this.staticPowerMw = staticPowerMw;
         this.deployPrecision = deployPrecision;
-        this.sources = Map.copyOf(sources);
+        this.sources = Collections.unmodifiableMap(new LinkedHashMap<>(sources));
     }
 
     /** Where the profile came from: "preset:ID" or the file path as given. */
@@ -37,6 +48,11 @@ public final class DeviceProfile {
 
     public String name() {
         return name;
+    }
+
+    /** Free text from the profile, or null. */
+    public String description() {
+        return description;
     }
 
     public double clockMhz() {
@@ -73,7 +89,10 @@ public final class DeviceProfile {
         return deployPrecision;
     }
 
-    /** Sources of the profile's numbers, by key (presets name one for every number). */
+    /**
+     * Sources of the profile's numbers, by key path as written in the file (e.g. {@code engines[0].rows}),
+     * in file order. Presets name one for every number.
+     */
     public Map<String, String> sources() {
         return sources;
     }

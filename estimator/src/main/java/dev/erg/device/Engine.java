@@ -21,6 +21,17 @@ public final class Engine {
         }
     }
 
+    /**
+     * Multiplier share of a MAC's energy when the profile gives none: Horowitz, "Computing's Energy
+     * Problem (and what we can do about it)", ISSCC 2014, 45 nm: 8-bit multiply 0.2 pJ of a 0.23 pJ
+     * multiply-add (0.2 pJ multiply + 0.03 pJ add).
+     */
+    public static final double DEFAULT_MAC_MULTIPLY_FRACTION = 0.2 / (0.2 + 0.03);
+    /** Vector ops are priced like adds when the profile gives no multiplier share: linear in bits. */
+    public static final double DEFAULT_VECTOR_MULTIPLY_FRACTION = 0;
+    /** Partial-sum width when the profile gives none (32-bit accumulators: common practice). */
+    public static final int DEFAULT_ACCUMULATOR_BITS = 32;
+
     private final String id;
     private final Kind kind;
     private final int rows;
@@ -79,6 +90,14 @@ public final class Engine {
     /** Energy per operation (a MAC for an array, an op for a vector unit) by precision, in fJ, as listed. */
     public Map<String, Double> energyFj() {
         return energyFj;
+    }
+
+    /**
+     * Energy of one operation at {@code precision} in fJ: the listed value, or the bit-width rule from
+     * the nearest listed precision; null when the precision has no bit width.
+     */
+    public Precisions.Lookup energyAt(String precision) {
+        return Precisions.lookup(energyFj, precision, multiplyFraction);
     }
 
     /** Share of a MAC's energy spent in the multiplier, for the bit-width rule. */
