@@ -16,11 +16,19 @@ public final class Precisions {
         if (label == null) {
             return 0;
         }
-        String digits = label.replaceAll("^[a-z]+", "").replaceAll("[^0-9].*$", "");
-        if (digits.isEmpty()) {
+        int i = 0;
+        int n = label.length();
+        while (i < n && Character.isLetter(label.charAt(i))) {
+            i++;
+        }
+        int start = i;
+        while (i < n && Character.isDigit(label.charAt(i))) {
+            i++;
+        }
+        if (i == start) {
             return label.equals("bool") ? 8 : 0;
         }
-        return Integer.parseInt(digits);
+        return Integer.parseInt(label.substring(start, i));
     }
 
     public static boolean isFloat(String label) {

@@ -91,7 +91,7 @@ public final class Estimator {
         List<NodeWork> works = w.nodes();
         int n = works.size();
         NodeEstimate[] est = new NodeEstimate[n];
-        Map<Node, Integer> pos = new IdentityHashMap<>();
+        Map<Node, Integer> pos = new IdentityHashMap<>(2 * n);
         for (int i = 0; i < n; i++) {
             est[i] = new NodeEstimate(works.get(i));
             pos.put(works.get(i).node(), i);
@@ -104,7 +104,6 @@ public final class Estimator {
         boolean[] fusedIn = fusion(works, est, pos);
         this.posOf = pos;
         this.fusedInOf = fusedIn;
-        Map<Node, Set<TensorDef>> weightSources = new IdentityHashMap<>();
         Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
         long[] weightBytes = new long[n];
         for (int i = 0; i < n; i++) {
@@ -114,7 +113,7 @@ public final class Estimator {
             }
             est[i].priced = true;
             est[i].precision = label(nw.precision());
-            Set<TensorDef> src = Collections.newSetFromMap(new IdentityHashMap<>());
+            List<TensorDef> src = new ArrayList<>(2);
             long loose = 0;
             Node node = nw.node();
             for (int k = 0; k < node.inputCount(); k++) {
@@ -125,7 +124,11 @@ public final class Estimator {
                 if (v.sources().isEmpty()) {
                     loose += actBytes(v);
                 } else {
-                    src.addAll(v.sources());
+                    for (TensorDef t : v.sources()) {
+                        if (!containsSame(src, t)) {
+                            src.add(t);
+                        }
+                    }
                 }
             }
             long wb = loose;
@@ -133,7 +136,6 @@ public final class Estimator {
                 wb += storedBytes(t);
             }
             weightBytes[i] = wb;
-            weightSources.put(node, src);
             allWeights.addAll(src);
             if (nw.kind() == Kind.MAC) {
                 mapMac(est[i], nw, array != null ? array : vector, vector, wb, fusedIn[i]);
@@ -168,6 +170,15 @@ public final class Estimator {
         List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? totalWeights : 0, totalWeights, p.activationPeak, dramPerFrame, uniq);
+    }
+
+    private static <T> boolean containsSame(List<T> list, T x) {
+        for (T t : list) {
+            if (t == x) {
+                return true;
+            }
+        }
+        return false;
     }
 
     private static boolean runs(NodeWork w) {
@@ -374,20 +385,32 @@ public final class Estimator {
             this.bytes = bytes;
         }
 
+        /** The first use after {@code step}, or -1: a binary search over the ascending use steps. */
         int nextUseAfter(int step) {
-            for (int u : uses) {
-                if (u > step) {
-                    return u;
+            int lo = 0;
+            int hi = uses.size();
+            while (lo < hi) {
+                int mid = (lo + hi) >>> 1;
+                if (uses.get(mid) <= step) {
+                    lo = mid + 1;
+                } else {
+                    hi = mid;
                 }
             }
-            return -1;
+            return lo < uses.size() ? uses.get(lo) : -1;
+        }
+
+        /** True when the buffer is read or written at {@code step}. */
+        boolean usedAt(int step) {
+            int j = nextUseAfter(step - 1);
+            return j == step;
         }
     }
 
     private Placement place(List<NodeWork> works, NodeEstimate[] est, long[] weightBytes, long totalWeights,
                             boolean[] fusedIn, Map<Node, Integer> pos) {
         int n = works.size();
-        Map<Value, Buffer> bufOf = new IdentityHashMap<>();
+        Map<Value, Buffer> bufOf = new IdentityHashMap<>(4 * n);
         List<Buffer> buffers = new ArrayList<>();
         for (int i = 0; i < n; i++) {
             NodeWork nw = works.get(i);
@@ -487,17 +510,19 @@ public final class Estimator {
             }
             NodeEstimate e = est[i];
             Node node = nw.node();
-            Set<Buffer> touched = Collections.newSetFromMap(new IdentityHashMap<>());
+            List<Buffer> touched = new ArrayList<>(4);
             long ownBytes = 0;
             for (Value v : node.inputs()) {
                 Buffer b = v == null ? null : bufOf.get(v);
-                if (b != null && b.uses.contains(i) && touched.add(b)) {
+                if (b != null && b.usedAt(i) && !containsSame(touched, b)) {
+                    touched.add(b);
                     ownBytes += b.bytes;
                 }
             }
             for (Value v : node.outputs()) {
                 Buffer b = v == null ? null : bufOf.get(v);
-                if (b != null && b.start == i && touched.add(b)) {
+                if (b != null && b.start == i && !containsSame(touched, b)) {
+                    touched.add(b);
                     ownBytes += b.bytes;
                 }
             }
@@ -510,7 +535,7 @@ public final class Estimator {
                 if (need > cap) {
                     List<Buffer> idle = new ArrayList<>();
                     for (Buffer b : active) {
-                        if (!touched.contains(b) && b.evictedUntil <= i && b.nextUseAfter(i) > 0) {
+                        if (!containsSame(touched, b) && b.evictedUntil <= i && b.nextUseAfter(i) > 0) {
                             idle.add(b);
                         }
                     }
@@ -560,7 +585,7 @@ public final class Estimator {
      * tile, or keep an input tile and stream the weights again per tile, whichever moves fewer bytes.
      * A tile may take half the SRAM; the other half buffers the streamed operand and the outputs.
      */
-    private void tileNode(NodeEstimate e, Node node, Set<Buffer> touched, Map<Value, Buffer> bufOf, long weights,
+    private void tileNode(NodeEstimate e, Node node, List<Buffer> touched, Map<Value, Buffer> bufOf, long weights,
                           long cap, int step, long[] adjust) {
         long in = 0;
         long out = 0;
@@ -645,7 +670,20 @@ public final class Estimator {
         e.energy = new Energy(compute, regJ, sramJ, dramJ, leak);
     }
 
+    private final Map<String, Double> energyCache = new HashMap<>();
+
     private double energy(Engine engine, String precision, String what) {
+        String key = engine.id() + '\u0000' + precision + '\u0000' + what;
+        Double cached = energyCache.get(key);
+        if (cached != null) {
+            return cached;
+        }
+        double fj = lookupEnergy(engine, precision, what);
+        energyCache.put(key, fj);
+        return fj;
+    }
+
+    private double lookupEnergy(Engine engine, String precision, String what) {
         Precisions.Lookup l = Precisions.lookup(engine.energyFj(), precision, engine.multiplyFraction());
         if (l == null) {
             throw new BadInputException(device.id() + ": engine '" + engine.id() + "' lists no " + what
