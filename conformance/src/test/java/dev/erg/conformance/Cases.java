@@ -32,6 +32,14 @@ final class Cases {
     static List<Case> standard() {
         Cases c = new Cases();
         ElementwiseCases.register(c.family("elementwise"));
+        TensorCases.register(c.family("tensor"));
+        ConvPoolCases.register(c.family("conv-pool"));
+        MatMulCases.register(c.family("matmul"));
+        NormReduceCases.register(c.family("norm-reduce"));
+        RecurrentCases.register(c.family("recurrent"));
+        QuantCases.register(c.family("quant"));
+        ControlCases.register(c.family("control"));
+        PatternCases.register(c.family("pattern"));
         return c.all;
     }
 }

@@ -37,7 +37,7 @@ final class Harness {
     enum Status { OK, MISMATCH, RUNTIME_UNSUPPORTED, RUNTIME_ERROR }
 
     /** What one node of the main graph gave on both sides. */
-    record NodeCheck(String opType, long opset, String node, List<String> problems, int values) {
+    record NodeCheck(String opType, long opset, String node, List<String> problems, int values, boolean unresolved) {
         boolean ok() {
             return problems.isEmpty();
         }
@@ -121,6 +121,11 @@ final class Harness {
             try {
                 ort = OrtRun.run(bytes, runtimeInputs, c.dims, c.id().hashCode());
             } catch (OrtRun.Failure f) {
+                String why = Known.RUNTIME_FAILS.get(c.id());
+                if (why != null) {
+                    return new Result(c, opset, Status.RUNTIME_UNSUPPORTED, why + " (onnxruntime: "
+                            + f.getMessage() + ")", List.of());
+                }
                 return new Result(c, opset, f.unsupported ? Status.RUNTIME_UNSUPPORTED : Status.RUNTIME_ERROR,
                         "onnxruntime: " + f.getMessage(), List.of());
             }
@@ -144,7 +149,8 @@ final class Harness {
                     }
                 }
                 bad |= !problems.isEmpty();
-                checks.add(new NodeCheck(n.opType(), n.opset(), n.name(), problems, values));
+                checks.add(new NodeCheck(n.opType(), n.opset(), n.name(), problems, values,
+                        n.status() == Node.Status.UNRESOLVED));
             }
             return new Result(c, opset, bad ? Status.MISMATCH : Status.OK, null, checks);
         } catch (IOException e) {

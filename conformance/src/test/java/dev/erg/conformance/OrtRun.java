@@ -95,7 +95,8 @@ final class OrtRun {
                         }
                     }
                 } catch (OrtException ex) {
-                    throw new Failure("run: " + oneLine(ex.getMessage()), false);
+                    String m = oneLine(ex.getMessage());
+                    throw new Failure("run: " + m, unsupported(m));
                 }
                 return outs;
             }
@@ -113,9 +114,14 @@ final class OrtRun {
             return e.createSession(model, o);
         } catch (OrtException ex) {
             String m = oneLine(ex.getMessage());
-            boolean unsupported = m.contains("NOT_IMPLEMENTED") || m.contains("Could not find an implementation");
-            throw new Failure("load: " + m, unsupported);
+            throw new Failure("load: " + m, unsupported(m));
         }
+    }
+
+    /** The runtime's own words for a form it has no kernel or no support for. */
+    static boolean unsupported(String m) {
+        return m.contains("NOT_IMPLEMENTED") || m.contains("Could not find an implementation")
+                || m.toLowerCase().contains("not supported");
     }
 
     static String oneLine(String s) {

@@ -50,6 +50,9 @@ class OrtShapeConformanceTest {
         Result r = Harness.run(c, TARGET.resolve("ort-models"));
         RESULTS.add(r);
         String known = Known.MISMATCHES.get(c.id());
+        if (r.status() != Harness.Status.RUNTIME_UNSUPPORTED && Known.RUNTIME_FAILS.containsKey(c.id())) {
+            fail(c.id() + " is listed as failing in the runtime but now runs; remove it from Known.RUNTIME_FAILS");
+        }
         switch (r.status()) {
             case OK:
                 assertNull(known, c.id() + " is listed as a known mismatch but now agrees with onnxruntime;"
