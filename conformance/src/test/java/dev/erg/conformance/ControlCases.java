@@ -28,6 +28,17 @@ final class ControlCases {
                         .op("Sigmoid", "y", "z");
             }, 11, 13, 16, 21);
         }
+        c.add("If", "condition from a shape comparison", m -> {
+            OnnxWriter.Graph then = new OnnxWriter.Graph("then_g")
+                    .node("Flatten", "then_fl", List.of("x"), List.of("t"))
+                    .output("t", ElemType.FLOAT);
+            OnnxWriter.Graph els = new OnnxWriter.Graph("else_g")
+                    .node("Identity", "else_id", List.of("x"), List.of("e"))
+                    .output("e", ElemType.FLOAT);
+            m.x("x", 2, 3, 4).op("Shape", "x", "s").i64s("i0", 0).op("Gather", "s,i0", "n", attr("axis", 0))
+                    .i64s("two", 2).op("Equal", "n,two", "c")
+                    .op("If", "c", "y", graph("then_branch", then), graph("else_branch", els));
+        }, 11, 13);
         c.add("Loop", "trip count 3 with a scan output", m -> {
             OnnxWriter.Graph body = new OnnxWriter.Graph("body")
                     .input("i", ElemType.INT64).input("cin", ElemType.BOOL).input("v", ElemType.FLOAT, 2, 3)

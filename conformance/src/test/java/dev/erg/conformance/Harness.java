@@ -123,8 +123,7 @@ final class Harness {
             } catch (OrtRun.Failure f) {
                 String why = Known.RUNTIME_FAILS.get(c.id());
                 if (why != null) {
-                    return new Result(c, opset, Status.RUNTIME_UNSUPPORTED, why + " (onnxruntime: "
-                            + f.getMessage() + ")", List.of());
+                    return new Result(c, opset, Status.RUNTIME_UNSUPPORTED, why, List.of());
                 }
                 return new Result(c, opset, f.unsupported ? Status.RUNTIME_UNSUPPORTED : Status.RUNTIME_ERROR,
                         "onnxruntime: " + f.getMessage(), List.of());
@@ -143,7 +142,7 @@ final class Harness {
                         continue;
                     }
                     values++;
-                    String p = compare(n, v, ort.get(v.name()), bounds.contains(v.name()));
+                    String p = compare(n.status(), n.note(), v, ort.get(v.name()), bounds.contains(v.name()));
                     if (p != null) {
                         problems.add(p);
                     }
@@ -162,7 +161,8 @@ final class Harness {
         return (t == null ? "?" : t.name().toLowerCase()) + (dims == null ? "[?]" : Arrays.toString(dims));
     }
 
-    private static String compare(Node n, Value v, OrtRun.Out o, boolean bound) {
+    /** Null when erg's value agrees with the runtime's output, else one line saying how they differ. */
+    static String compare(Node.Status status, String note, Value v, OrtRun.Out o, boolean bound) {
         if (o == null) {
             return "'" + v.name() + "': the runtime gave no such output";
         }
@@ -171,9 +171,9 @@ final class Harness {
         }
         ElemType ot = o.type();
         String ortShown = show(ot, o.shape());
-        if (n.status() != Node.Status.SHAPED || !v.hasShape()) {
-            return "'" + v.name() + "': erg gives no shape (node " + n.status().name().toLowerCase()
-                    + (n.note() == null ? "" : ", " + n.note()) + "), onnxruntime " + ortShown;
+        if (status != Node.Status.SHAPED || !v.hasShape()) {
+            return "'" + v.name() + "': erg gives no shape (node " + status.name().toLowerCase()
+                    + (note == null ? "" : ", " + note) + "), onnxruntime " + ortShown;
         }
         String ergShown = show(v.type(), v.dims());
         boolean typeOk = v.type() == ot;

@@ -38,9 +38,9 @@ final class Known {
             MISMATCHES.put(id, scan);
         }
 
-        String omitted = "onnxruntime 1.23 fails at run time on noop_with_empty_axes = 1 with the axes input"
-                + " omitted (its kernel reduces all axes, then checks for one element); with an empty axes"
-                + " tensor it keeps the input, as the standard says";
+        String omitted = "the runtime fails at run time when noop_with_empty_axes = 1 and the axes input is omitted"
+                + " (it reduces all axes, then expects one element); the same node with an empty axes tensor"
+                + " runs and agrees (case 'noop_with_empty_axes, empty axes')";
         RUNTIME_FAILS.put("ReduceSum noop_with_empty_axes, axes omitted @13", omitted);
         for (String op : new String[] {"ReduceSum", "ReduceMean", "ReduceMax", "ReduceMin", "ReduceProd", "ReduceL1",
             "ReduceL2", "ReduceLogSum", "ReduceLogSumExp", "ReduceSumSquare"}) {

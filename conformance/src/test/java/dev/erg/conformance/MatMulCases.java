@@ -8,7 +8,7 @@ final class MatMulCases {
     }
 
     static void register(Cases c) {
-        c.add("Gemm", "plain with C", m -> m.x("a", 3, 4).w("b", 4, 5).w("cc", 3, 5).op("Gemm", "a,b,cc", "y"), 7, 9, 11, 13);
+        c.add("Gemm", "plain with C", m -> m.x("a", 3, 4).w("b", 4, 5).w("cc", 3, 5).op("Gemm", "a,b,cc", "y"), 7, 9, 11, 13, 17, 21);
         c.add("Gemm", "transA transB, C row", m -> m.x("a", 4, 3).w("b", 5, 4).w("cc", 5)
                 .op("Gemm", "a,b,cc", "y", attr("transA", 1), attr("transB", 1), attr("alpha", 0.5f)), 7, 11, 13);
         c.add("Gemm", "C scalar-like", m -> m.x("a", 2, 3).w("b", 3, 6).w("cc", 1)
@@ -17,11 +17,12 @@ final class MatMulCases {
                 .op("Gemm", "a,b,cc", "y", attr("transB", 1)), 7, 13);
         c.add("Gemm", "no C", m -> m.x("a", 2, 3).w("b", 3, 6).op("Gemm", "a,b", "y"), 11, 13, 21);
 
-        c.add("MatMul", "2-D", m -> m.x("a", 3, 4).w("b", 4, 5).op("MatMul", "a,b", "y"), 7, 13);
+        c.add("MatMul", "2-D", m -> m.x("a", 3, 4).w("b", 4, 5).op("MatMul", "a,b", "y"), 7, 9, 13, 17, 21);
         c.add("MatMul", "vector by matrix", m -> m.x("a", 4).w("b", 4, 5).op("MatMul", "a,b", "y"), 7, 13);
         c.add("MatMul", "matrix by vector", m -> m.x("a", 2, 3, 4).w("b", 4).op("MatMul", "a,b", "y"), 7, 13);
         c.add("MatMul", "vector by vector", m -> m.x("a", 4).w("b", 4).op("MatMul", "a,b", "y"), 7, 13);
-        c.add("MatMul", "batched broadcast", m -> m.x("a", 2, 1, 3, 4).x("b", 5, 4, 2).op("MatMul", "a,b", "y"), 7, 13);
+        c.add("MatMul", "vector by batch", m -> m.x("a", 4).x("b", 2, 4, 5).op("MatMul", "a,b", "y"), 7, 13);
+        c.add("MatMul", "batched broadcast", m -> m.x("a", 2, 1, 3, 4).x("b", 5, 4, 2).op("MatMul", "a,b", "y"), 7, 13, 21);
         c.add("MatMul", "batch by 2-D", m -> m.x("a", 2, 6, 3, 4).w("b", 4, 7).op("MatMul", "a,b", "y"), 7, 13);
 
         String[][] eqs = {

@@ -37,6 +37,7 @@ final class ModelEdit {
             CodedOutputStream out = CodedOutputStream.newInstance(bos);
             boolean done = false;
             while (true) {
+                int start = in.getTotalBytesRead();
                 int tag = in.readTag();
                 if (tag == 0) {
                     break;
@@ -50,7 +51,8 @@ final class ModelEdit {
                     out.writeRawBytes(add);
                     done = true;
                 } else {
-                    in.skipField(tag, out);
+                    in.skipField(tag);
+                    out.writeRawBytes(model, start, in.getTotalBytesRead() - start); // the field as it was
                 }
             }
             out.flush();

@@ -18,7 +18,12 @@ final class NormReduceCases {
             m.x("x", 2, 3, 4, 5);
             bnParams(m, 3);
             m.op("BatchNormalization", "x,scale,bias,mean,var", "y", attr("epsilon", 1e-5f));
-        }, 7, 9, 14, 15);
+        }, 7, 9, 14, 15, 17, 21);
+        c.add("BatchNormalization", "statistics outputs (opsets 7-9)", m -> {
+            m.x("x", 2, 3, 4, 5);
+            bnParams(m, 3);
+            m.op("BatchNormalization", "x,scale,bias,mean,var", "y,om,ov,sm,sv");
+        }, 7, 9);
         c.add("BatchNormalization", "2-D", m -> {
             m.x("x", 4, 3);
             bnParams(m, 3);
@@ -63,7 +68,7 @@ final class NormReduceCases {
             "ReduceLogSum", "ReduceLogSumExp", "ReduceSumSquare"};
         for (String op : reduces) {
             long since = op.equals("ReduceSum") ? 13 : 18;
-            long[] opsets = op.equals("ReduceSum") ? d(7, 11, 13, 18) : d(7, 11, 13, 18);
+            long[] opsets = d(7, 11, 13, 17, 18, 21);
             c.add(op, "axes keepdims", m -> m.x("x", 2, 3, 4).axesOp(op, since, "x", d(1), "y"), opsets);
             c.add(op, "axes no keepdims", m -> m.x("x", 2, 3, 4, 5)
                     .axesOp(op, since, "x", d(0, 2), "y", attr("keepdims", 0)), opsets);
@@ -81,6 +86,7 @@ final class NormReduceCases {
             c.add(op, "default axis no keepdims", m -> m.x("x", 2, 3, 4).op(op, "x", "y", attr("keepdims", 0)), 7, 13);
             c.add(op, "negative axis", m -> m.x("x", 2, 3, 4).op(op, "x", "y", attr("axis", -1), attr("keepdims", 0)),
                     11, 13);
+            c.add(op, "1-D to scalar", m -> m.x("x", 5).op(op, "x", "y", attr("keepdims", 0)), 7, 13);
             c.add(op, "select_last_index", m -> m.x("x", 2, 3, 4).op(op, "x", "y", attr("axis", 2),
                     attr("select_last_index", 1)), 12, 13);
         }

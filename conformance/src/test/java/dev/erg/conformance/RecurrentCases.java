@@ -25,7 +25,7 @@ final class RecurrentCases {
                 long dirs = dir.equals("bidirectional") ? 2 : 1;
                 c.add(op, dir + " with bias", m -> m.x("x", SEQ, BATCH, IN).w("w", dirs, gates * HID, IN)
                         .w("r", dirs, gates * HID, HID).w("b", dirs, 2 * gates * HID)
-                        .op(op, "x,w,r,b", outs, attr("hidden_size", HID), attr("direction", dir)), 7, 14, 22);
+                        .op(op, "x,w,r,b", outs, attr("hidden_size", HID), attr("direction", dir)), 7, 14, 21, 22);
             }
             c.add(op, "sequence_lens and initial_h", m -> {
                 m.x("x", SEQ, BATCH, IN).w("w", 1, gates * HID, IN).w("r", 1, gates * HID, HID)

@@ -102,7 +102,7 @@ final class Report {
                 String reason = Known.MISMATCHES.get(r.c().id());
                 b.append("- `").append(r.c().id()).append("`").append(reason == null ? "" : ": " + reason).append('\n');
                 for (String p : r.problems()) {
-                    b.append("  - ").append(p.replace("|", "\\|")).append('\n');
+                    b.append("  - ").append(shorten(p)).append('\n');
                 }
             }
         }
@@ -123,9 +123,13 @@ final class Report {
         return b.toString();
     }
 
-    private static String shorten(String s) {
-        String t = s.replace("|", "\\|");
-        return t.length() > 300 ? t.substring(0, 300) + "..." : t;
+    /** The runtime's message without its build paths and C++ signatures, cut to a readable length. */
+    static String shorten(String s) {
+        String t = s.replaceAll("Error code - ORT_[A-Z_]+ - message: ", "")
+                .replaceAll("/onnxruntime_src/\\S+:\\d+ ", "")
+                .replaceAll("onnxruntime::[\\w:<>]+\\([^)]*\\)( \\[with [^\\]]*\\])? ", "")
+                .replace("|", "\\|");
+        return t.length() > 400 ? t.substring(0, 400) + "..." : t;
     }
 
     private static void put(Map<String, Map<Long, EnumSet<Cell>>> cells, Set<Long> opsets, String op, long opset,

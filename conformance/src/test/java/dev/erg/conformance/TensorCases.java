@@ -16,7 +16,7 @@ final class TensorCases {
 
     static void register(Cases c) {
         // Reshape: 0 copies a dim (unless allowzero), -1 is inferred.
-        c.add("Reshape", "0 and -1", m -> m.x("x", 2, 3, 4).i64("s", 0, -1).op("Reshape", "x,s", "y"), 7, 13, 14, 21);
+        c.add("Reshape", "0 and -1", m -> m.x("x", 2, 3, 4).i64("s", 0, -1).op("Reshape", "x,s", "y"), 7, 13, 14, 17, 21);
         c.add("Reshape", "-1 first", m -> m.x("x", 2, 3, 4).i64("s", -1, 4, 1).op("Reshape", "x,s", "y"), 7, 14);
         c.add("Reshape", "0 beyond a -1", m -> m.x("x", 2, 3, 4).i64("s", -1, 0, 2, 2).op("Reshape", "x,s", "y"), 13, 21);
         c.add("Reshape", "allowzero keeps a literal 0", m -> m.x("x", 0, 3).i64("s", 3, 0)
@@ -37,11 +37,11 @@ final class TensorCases {
         c.add("Unsqueeze", "scalar", m -> m.fs("s", 1f).x("x", 2).op("Mul", "x,s", "p")
                 .axesOp("Unsqueeze", 13, "s", d(0), "y"), 11, 13);
 
-        c.add("Transpose", "perm", m -> m.x("x", 2, 3, 4, 5).op("Transpose", "x", "y", ints("perm", 0, 2, 3, 1)), 7, 13, 21);
+        c.add("Transpose", "perm", m -> m.x("x", 2, 3, 4, 5).op("Transpose", "x", "y", ints("perm", 0, 2, 3, 1)), 7, 13, 17, 21);
         c.add("Transpose", "default perm", m -> m.x("x", 2, 3, 4).op("Transpose", "x", "y"), 7, 13, 21);
 
         c.add("Concat", "three inputs axis 1", m -> m.x("a", 2, 1, 4).x("b", 2, 3, 4).x("c", 2, 2, 4)
-                .op("Concat", "a,b,c", "y", attr("axis", 1)), 7, 11, 13);
+                .op("Concat", "a,b,c", "y", attr("axis", 1)), 7, 11, 13, 17, 21);
         c.add("Concat", "negative axis", m -> m.x("a", 2, 3).x("b", 2, 5).op("Concat", "a,b", "y", attr("axis", -1)), 11, 13);
         c.add("Concat", "int64 vectors", m -> m.in("a", ElemType.INT64, 2).i64("b", 5, 6, 7)
                 .op("Concat", "a,b", "y", attr("axis", 0)), 7, 13);
@@ -68,7 +68,7 @@ final class TensorCases {
             } else {
                 m.i64("st", 1, 0).i64("en", 3, 4).i64("ax", 0, 2).op("Slice", "x,st,en,ax", "y");
             }
-        }, 7, 10, 11, 13);
+        }, 7, 10, 11, 13, 17, 21);
         c.add("Slice", "no axes, clamped ends", m -> {
             m.x("x", 4, 6);
             if (m.opset < 10) {
@@ -87,7 +87,7 @@ final class TensorCases {
                 .op("Slice", "x,st,en,ax", "y"), 11, 13);
 
         c.add("Gather", "axis 0 matrix indices", m -> m.x("x", 5, 3).i64t("i", d(2, 2), 0, 4, 1, 1)
-                .op("Gather", "x,i", "y"), 7, 11, 13);
+                .op("Gather", "x,i", "y"), 7, 11, 13, 17, 21);
         c.add("Gather", "axis 1 vector indices", m -> m.x("x", 2, 5, 3).i64("i", 4, 0, 2)
                 .op("Gather", "x,i", "y", attr("axis", 1)), 7, 13);
         c.add("Gather", "scalar index", m -> m.x("x", 2, 5, 3).i64s("i", 3)
@@ -116,7 +116,7 @@ final class TensorCases {
             } else {
                 m.i64("p", 0, 1, 2, 0, 3, 1).fs("v", 0.5f).op("Pad", "x,p,v", "y");
             }
-        }, 7, 11, 13, 18, 21);
+        }, 7, 11, 13, 17, 18, 21);
         c.add("Pad", "reflect", m -> {
             m.x("x", 1, 2, 4, 5);
             if (m.opset < 11) {
@@ -138,12 +138,12 @@ final class TensorCases {
                 .op("Pad", "x,p,v,ax", "y"), 18, 21);
         c.add("Pad", "wrap", m -> m.x("x", 3, 4).i64("p", 1, 2, 2, 1).op("Pad", "x,p", "y", attr("mode", "wrap")), 19, 21);
 
-        c.add("Tile", "repeats", m -> m.x("x", 2, 3, 1).i64("r", 2, 1, 4).op("Tile", "x,r", "y"), 7, 13);
-        c.add("Expand", "to higher rank", m -> m.x("x", 3, 1).i64("s", 2, 3, 4).op("Expand", "x,s", "y"), 8, 13);
+        c.add("Tile", "repeats", m -> m.x("x", 2, 3, 1).i64("r", 2, 1, 4).op("Tile", "x,r", "y"), 7, 13, 21);
+        c.add("Expand", "to higher rank", m -> m.x("x", 3, 1).i64("s", 2, 3, 4).op("Expand", "x,s", "y"), 8, 13, 21);
         c.add("Expand", "shape of lower rank", m -> m.x("x", 2, 3, 1).i64("s", 1, 4).op("Expand", "x,s", "y"), 8, 13);
         c.add("Expand", "shape with ones", m -> m.x("x", 2, 1, 5).i64("s", 1, 1, 3, 1).op("Expand", "x,s", "y"), 8, 13);
 
-        c.add("DepthToSpace", "DCR", m -> m.x("x", 1, 8, 2, 3).op("DepthToSpace", "x", "y", attr("blocksize", 2)), 7, 11, 13);
+        c.add("DepthToSpace", "DCR", m -> m.x("x", 1, 8, 2, 3).op("DepthToSpace", "x", "y", attr("blocksize", 2)), 7, 11, 13, 21);
         c.add("DepthToSpace", "CRD", m -> m.x("x", 2, 18, 2, 2).op("DepthToSpace", "x", "y", attr("blocksize", 3),
                 attr("mode", "CRD")), 11, 13);
         c.add("SpaceToDepth", "blocksize 2", m -> m.x("x", 1, 3, 4, 6).op("SpaceToDepth", "x", "y", attr("blocksize", 2)), 7, 13);
@@ -158,7 +158,7 @@ final class TensorCases {
             } else {
                 m.op("Resize", "x,,sc", "y");
             }
-        }, 10, 11, 13, 18, 19);
+        }, 10, 11, 13, 17, 18, 19, 21);
         c.add("Resize", "downscale linear", m -> {
             m.x("x", 1, 1, 7, 9).f("sc", d(4), 1f, 1f, 0.5f, 0.4f);
             if (m.opset == 10) {
@@ -245,6 +245,10 @@ final class TensorCases {
         c.add("Shape", "start and end", m -> m.x("x", 2, 3, 4, 5).op("Shape", "x", "a", attr("start", 1))
                 .op("Shape", "x", "b", attr("start", -3), attr("end", -1))
                 .op("Shape", "x", "c", attr("end", 10)), 15, 21);
+        c.add("Shape", "of a scalar", m -> m.x("x").op("Shape", "x", "s").op("Size", "x", "n"), 7, 13);
+        c.add("Reshape", "to and from a scalar", m -> m.x("x", 1, 1).i64("empty").op("Reshape", "x,empty", "s")
+                .i64("one", 1).op("Reshape", "s,one", "v"), 7, 13);
+        c.add("Range", "int32", m -> m.i32t("s", d(), 0).i32t("l", d(), 10).i32t("dl", d(), 4).op("Range", "s,l,dl", "y"), 11);
         c.add("Size", "elements", m -> m.x("x", 2, 3, 4).op("Size", "x", "y"), 7, 13, 21);
     }
 }
