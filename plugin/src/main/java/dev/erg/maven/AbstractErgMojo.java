@@ -46,31 +46,11 @@ abstract class AbstractErgMojo extends AbstractMojo {
     List<String> devices;
 
     /**
-     * The limits every model must hold on every device: {@code targetFps}, {@code maxPowerMw},
-     * {@code maxEnergyPerFrameUj}, {@code maxLatencyMs}, {@code maxWeightKib}, {@code maxActivationKib}.
-     * Each is optional.
-     */
-    @Parameter
-    BudgetConfig budget;
-
-    /**
      * The baseline file (relative to the project's base directory) that growth is measured against.
      * Written by the {@code baseline} goal and committed with the project. Without it no growth is checked.
      */
     @Parameter(property = "erg.baseline")
     String baseline;
-
-    /** The growth allowed per metric over the baseline, in percent. Used only when a baseline is configured. */
-    @Parameter(property = "erg.maxGrowthPercent", defaultValue = "5")
-    Double maxGrowthPercent;
-
-    /** The report formats to write, comma-separated: json, html, markdown, junit. */
-    @Parameter(property = "erg.formats", defaultValue = "json,html,markdown,junit")
-    String formats;
-
-    /** Where the reports are written. */
-    @Parameter(property = "erg.outputDirectory", defaultValue = "${project.build.directory}/erg")
-    File outputDirectory;
 
     /** Skips the goal. */
     @Parameter(property = "erg.skip", defaultValue = "false")
@@ -136,9 +116,10 @@ abstract class AbstractErgMojo extends AbstractMojo {
                 throw new MojoExecutionException("erg: " + where + ": no <file> given (the path of an ONNX model)");
             }
             String label = m.getFile().strip();
-            if (seen.put(label, i) != null) {
+            Integer before = seen.putIfAbsent(label, i);
+            if (before != null) {
                 throw new MojoExecutionException("erg: " + where + ": " + label + " is listed twice (also as models["
-                        + seen.get(label) + "])");
+                        + before + "])");
             }
             specs.add(new Gate.ModelSpec(label, resolve(base, label, where + ".file"),
                     dimensions(where + " (" + label + ")", m.getDimensions())));
@@ -161,25 +142,31 @@ abstract class AbstractErgMojo extends AbstractMojo {
             }
             devs.add(d);
         }
-        Budget b = budget();
+        Budget b = budgetSetting();
         String baselineLabel = baseline == null || baseline.isBlank() ? null : baseline.strip();
         Path baselineFile = baselineLabel == null ? null : resolve(base, baselineLabel, "baseline");
-        if (maxGrowthPercent != null && (maxGrowthPercent.isNaN() || maxGrowthPercent.isInfinite()
-                || maxGrowthPercent < 0)) {
-            throw new MojoExecutionException("erg: maxGrowthPercent: must be a number of 0 or more (got "
-                    + maxGrowthPercent + ")");
-        }
-        Set<String> fmts;
-        try {
-            fmts = Reports.parseFormats(formats == null ? "" : formats);
-        } catch (BadInputException e) {
-            throw new MojoExecutionException("erg: " + e.getMessage(), e);
-        }
-        if (outputDirectory == null) {
-            throw new MojoExecutionException("erg: outputDirectory: not set");
-        }
-        return new Settings(List.copyOf(specs), List.copyOf(devs), b, baselineLabel, baselineFile, maxGrowthPercent,
-                fmts, outputDirectory.toPath());
+        return new Settings(List.copyOf(specs), List.copyOf(devs), b, baselineLabel, baselineFile,
+                growthSetting(), formatsSetting(), outputSetting());
+    }
+
+    /** The budget of the goals that check one; none here. */
+    Budget budgetSetting() throws MojoExecutionException {
+        return Budget.none();
+    }
+
+    /** The allowed growth of the goals that check it; none here. */
+    Double growthSetting() throws MojoExecutionException {
+        return null;
+    }
+
+    /** The report formats of the goals that write reports; none here. */
+    Set<String> formatsSetting() throws MojoExecutionException {
+        return Set.of();
+    }
+
+    /** The report directory of the goals that write reports; none here. */
+    Path outputSetting() throws MojoExecutionException {
+        return null;
     }
 
     private static Path resolve(Path base, String path, String where) throws MojoExecutionException {
@@ -213,19 +200,6 @@ abstract class AbstractErgMojo extends AbstractMojo {
             out.put(e.getKey(), n);
         }
         return out;
-    }
-
-    private Budget budget() throws MojoExecutionException {
-        if (budget == null) {
-            return Budget.none();
-        }
-        try {
-            return Budget.builder().targetFps(budget.getTargetFps()).maxPowerMw(budget.getMaxPowerMw())
-                    .maxEnergyPerFrameUj(budget.getMaxEnergyPerFrameUj()).maxLatencyMs(budget.getMaxLatencyMs())
-                    .maxWeightKib(budget.getMaxWeightKib()).maxActivationKib(budget.getMaxActivationKib()).build();
-        } catch (BadInputException e) {
-            throw new MojoExecutionException("erg: " + e.getMessage(), e);
-        }
     }
 
     /** Loads the devices; a fault is the library's one-line message. */

@@ -12,7 +12,7 @@ import org.apache.maven.plugins.annotations.Mojo;
  * fails once, listing all of them. Broken input or configuration is an error of its own.
  */
 @Mojo(name = "check", defaultPhase = LifecyclePhase.VERIFY, threadSafe = true)
-public class CheckMojo extends AbstractErgMojo {
+public class CheckMojo extends AbstractReportingMojo {
     @Override
     void run(Settings s) throws MojoExecutionException, MojoFailureException {
         GateResult r = evaluate(s, s.budget, true);

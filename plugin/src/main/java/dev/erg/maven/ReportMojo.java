@@ -10,7 +10,7 @@ import org.apache.maven.plugins.annotations.Mojo;
  * the build on a budget: the verdict is only logged. Broken input or configuration still fails.
  */
 @Mojo(name = "report", defaultPhase = LifecyclePhase.VERIFY, threadSafe = true)
-public class ReportMojo extends AbstractErgMojo {
+public class ReportMojo extends AbstractReportingMojo {
     @Override
     void run(Settings s) throws MojoExecutionException {
         GateResult r = evaluate(s, s.budget, true);
