@@ -11,7 +11,6 @@ import dev.erg.onnx.OnnxWriter;
 import java.io.File;
 import java.io.IOException;
 import java.io.UncheckedIOException;
-import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -90,16 +89,6 @@ public final class ItFixtures {
         GateResult r = Gate.evaluate(List.of(new Gate.ModelSpec(label, modelFile.toPath(), dims)), ds,
                 Budget.none(), null, null, null, line -> { });
         Baseline.of(r.pairs()).write(out.toPath());
-    }
-
-    /** Writes text as UTF-8. */
-    public static void text(File file, String s) {
-        mkdirs(file);
-        try {
-            Files.write(file.toPath(), s.getBytes(StandardCharsets.UTF_8));
-        } catch (IOException e) {
-            throw new UncheckedIOException(e);
-        }
     }
 
     private static void mkdirs(File file) {
