@@ -1,0 +1,2 @@
+dev.erg.maven.it.ItFixtures.corruptModel(new File(basedir, 'src/main/onnx/broken.onnx'))
+return true
