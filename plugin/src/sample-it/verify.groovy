@@ -21,7 +21,7 @@ assert tight.failures()*.metric()*.name() == ['POWER', 'WEIGHTS']
 erg.consoleOf(tight)
 erg.failedOnBudget(tight)
 erg.logged(':check (default) on project feeder-camera: 2 budget violations:')
-erg.logged(' mW at 4 fps exceeds the limit of 2 mW (top layers by energy: ')
+erg.logged(' mW at 4 fps exceeds the limit of 2 mW; static power is 3 mW of it (top layers by energy: ')
 erg.logged(' KiB exceed the limit of 256 KiB (top layers by weight bytes: ')
 // the reports of the last run are on disk and their paths were logged
 erg.reportsOf(tight)

@@ -147,7 +147,8 @@ public final class Gate {
             checks.add(new Check(Check.Kind.BUDGET, Metric.POWER, mw, budget.maxPowerMw(), Double.NaN, ok, top,
                     who + ": average power " + fmt(mw) + " mW at " + fmt(fps) + " fps "
                             + (ok ? "is within" : "exceeds") + " the limit of " + fmt(budget.maxPowerMw()) + " mW"
-                            + (ok ? "" : shares("energy", top))));
+                            + (ok ? "" : "; static power is " + fmt(e.device().staticPowerMw()) + " mW of it"
+                            + shares("energy", top))));
         }
         if (budget.maxEnergyPerFrameUj() != null) {
             double uj = e.energyPerFrameJoules() * 1e6;

@@ -71,7 +71,16 @@ public final class GateResult {
     public String failureMessage() {
         List<Check> f = failures();
         StringBuilder b = new StringBuilder();
-        b.append(f.size()).append(f.size() == 1 ? " budget violation:" : " budget violations:");
+        long growth = f.stream().filter(c -> c.kind() == Check.Kind.GROWTH).count();
+        long budget = f.size() - growth;
+        if (growth == 0) {
+            b.append(f.size()).append(f.size() == 1 ? " budget violation:" : " budget violations:");
+        } else if (budget == 0) {
+            b.append(f.size()).append(f.size() == 1 ? " growth violation" : " growth violations").append(" over the baseline:");
+        } else {
+            b.append(f.size()).append(" violations (").append(budget).append(" budget, ").append(growth)
+                    .append(" growth over the baseline):");
+        }
         for (Check c : f) {
             b.append("\n  - ").append(c.message());
         }

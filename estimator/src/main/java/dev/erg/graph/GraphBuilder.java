@@ -309,10 +309,11 @@ public final class GraphBuilder {
                 Long bound = dimBindings.get(d.param());
                 if (bound == null) {
                     throw bad("graph input '" + in.name() + "' has the symbolic dim '" + d.param()
-                            + "' (axis " + k + ") with no value; bind it with --dim " + d.param() + "=N");
+                            + "' (axis " + k + ") with no value; bind it (CLI: --dim " + d.param() + "=N; Maven: <dimensions><"
+                            + d.param() + ">N</" + d.param() + "></dimensions>)");
                 }
-                if (bound < 0) {
-                    throw bad("symbolic dim '" + d.param() + "' is bound to the negative value " + bound);
+                if (bound < 1) {
+                    throw bad("symbolic dim '" + d.param() + "' is bound to " + bound + "; a dim must be at least 1");
                 }
                 dims[k] = bound;
                 used.put(d.param(), bound);

@@ -41,7 +41,7 @@ class GateTest {
         Check power = p.checks().get(1);
         assertFalse(power.passed());
         assertEquals(2.435712, power.value(), 1e-9);
-        assertEquals("m.onnx on dev: average power 2.44 mW at 20000 fps exceeds the limit of 2 mW"
+        assertEquals("m.onnx on dev: average power 2.44 mW at 20000 fps exceeds the limit of 2 mW; static power is 1 mW of it"
                 + " (top layers by energy: conv 100.0%)", power.message());
         Check latency = p.checks().get(2);
         assertTrue(latency.passed());
