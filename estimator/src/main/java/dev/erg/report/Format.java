@@ -183,4 +183,13 @@ final class Format {
     static String signedExact(long v) {
         return v > 0 ? "+" + exact(v) : exact(v);
     }
+
+    /** {@code s} with a capital first letter and a closing full stop. */
+    static String sentence(String s) {
+        if (s.isEmpty()) {
+            return s;
+        }
+        String t = Character.toUpperCase(s.charAt(0)) + s.substring(1);
+        return t.endsWith(".") ? t : t + ".";
+    }
 }

@@ -188,15 +188,16 @@ public final class HtmlReport {
     private static void layerTable(StringBuilder h, Figures f) {
         List<NodeEstimate> ranked = f.byEnergy();
         int shown = Math.min(TABLE_ROWS, ranked.size());
-        h.append("<section id=\"layers\">\n<h2>Layers by energy</h2>\n<p class=\"muted\">")
+        h.append("<section id=\"layers\">\n<h2>Layers by energy</h2>\n");
+        if (ranked.isEmpty()) {
+            h.append("<p class=\"muted\">No layer runs on the device.</p>\n</section>\n");
+            return;
+        }
+        h.append("<p class=\"muted\">")
                 .append(shown == ranked.size() ? "All " + ConsoleReport.plural(shown, "layer") + " that run on the device"
                         : "The " + shown + " of " + ranked.size() + " layers that cost most energy")
                 .append(". Energy in µJ, latency in µs, DRAM bytes per frame; a fused layer runs on the way out of the"
                         + " MAC layer before it.</p>\n");
-        if (ranked.isEmpty()) {
-            h.append("</section>\n");
-            return;
-        }
         h.append("<div class=\"scroll\"><table class=\"grid\">\n<thead><tr><th>#</th><th class=\"l\">layer</th>")
                 .append("<th class=\"l\">op, precision</th><th>MACs</th>")
                 .append("<th>util</th><th>latency</th><th class=\"l\">bound</th><th>compute</th><th>registers</th>")
@@ -235,7 +236,7 @@ public final class HtmlReport {
         PairResult p = f.pair;
         if (p == null || !p.hasBaseline()) {
             String why = result == null || result.baselineFile() == null ? "No baseline is configured."
-                    : !result.baselineFound() ? result.baselineNote() + "."
+                    : !result.baselineFound() ? Format.sentence(result.baselineNote())
                     : "The baseline " + result.baselineFile() + " has no entry for this model and device.";
             h.append("<p class=\"muted\">").append(esc(why)).append("</p>\n</section>\n");
             return;

@@ -3,6 +3,7 @@ package dev.erg.report;
 import dev.erg.budget.Check;
 import dev.erg.budget.GateResult;
 import dev.erg.budget.LayerShare;
+import dev.erg.budget.Metric;
 import dev.erg.budget.PairResult;
 import dev.erg.workload.Kind;
 import java.util.ArrayList;
@@ -95,7 +96,8 @@ public final class JUnitReport {
             for (LayerShare s : c.topLayers()) {
                 b.append("\n  ").append(s.name()).append(" (").append(s.opType()).append(") ");
                 if (c.kind() == Check.Kind.GROWTH) {
-                    b.append(Format.signed(s.value())).append(' ').append(c.metric().unit);
+                    b.append(c.metric() == Metric.MACS ? Format.signedExact(Math.round(s.value()))
+                            : Format.signed(s.value())).append(' ').append(c.metric().unit);
                 } else {
                     b.append(Format.percent(s.share()));
                 }

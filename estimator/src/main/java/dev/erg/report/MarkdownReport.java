@@ -156,7 +156,7 @@ public final class MarkdownReport {
         b.append("**Against the baseline**\n\n");
         if (!p.hasBaseline()) {
             String why = result.baselineFile() == null ? "No baseline is configured."
-                    : !result.baselineFound() ? result.baselineNote() + "."
+                    : !result.baselineFound() ? Format.sentence(result.baselineNote())
                     : "The baseline " + result.baselineFile() + " has no entry for this model and device.";
             b.append(text(why)).append("\n\n");
             return;
