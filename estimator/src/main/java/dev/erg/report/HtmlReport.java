@@ -389,7 +389,19 @@ public final class HtmlReport {
                     names, true));
         }
         h.append(caption(ranked.size(), top, "latency")).append('\n');
-        legend(h, names, colours);
+        // the legend names the bounds that occur
+        List<String> usedNames = new ArrayList<>();
+        List<String> usedColours = new ArrayList<>();
+        for (int i = 0; i < BOUNDS.length; i++) {
+            for (Bar b : bars) {
+                if (b.values[i] > 0) {
+                    usedNames.add(names[i]);
+                    usedColours.add(colours[i]);
+                    break;
+                }
+            }
+        }
+        legend(h, usedNames.toArray(new String[0]), usedColours.toArray(new String[0]));
         barChart(h, "chart-latency", "Latency per layer in µs, coloured by its bound", bars, "µs");
     }
 

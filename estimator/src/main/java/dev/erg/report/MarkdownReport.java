@@ -93,8 +93,8 @@ public final class MarkdownReport {
         } else {
             b.append(failed).append(" of ").append(ConsoleReport.plural(p.checks().size(), "check")).append(" failed.");
         }
-        b.append(" Model ").append(code(f.model)).append(", device ").append(text(f.profile().name())).append(" (")
-                .append(Format.sig(f.profile().clockMhz())).append(" MHz).\n\n");
+        b.append(" Model ").append(code(f.model)).append(", device ").append(text(f.profile().name())).append(", ")
+                .append(Format.sig(f.profile().clockMhz())).append(" MHz.\n\n");
         if (!p.checks().isEmpty()) {
             b.append("| | check | value | limit | message |\n|---|---|---:|---:|---|\n");
             for (Check c : p.checks()) {
