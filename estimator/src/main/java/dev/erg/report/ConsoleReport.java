@@ -100,8 +100,8 @@ public final class ConsoleReport {
             int rank = 0;
             for (NodeEstimate n : shown) {
                 Energy en = n.energy();
-                t.row(Integer.toString(++rank), AnalysisTable.shorten(n.name(), AnalysisTable.NAME_WIDTH),
-                        n.work().opType(), Format.count(n.work().macs()), utilization(n),
+                t.row(Integer.toString(++rank), plain(AnalysisTable.shorten(n.name(), AnalysisTable.NAME_WIDTH)),
+                        plain(n.work().opType()), Format.count(n.work().macs()), utilization(n),
                         Format.sig(n.latencySeconds() * 1e6), uj(en.compute()), uj(en.registers()), uj(en.sram()),
                         uj(en.dram()), uj(en.staticEnergy()), uj(en.total()), Format.percent(f.energyShare(n)),
                         bound(n));
@@ -126,6 +126,16 @@ public final class ConsoleReport {
                     .append(Format.countKind(e.workload(), Kind.UNRESOLVED))
                     .append(" unresolved nodes are not priced: the totals are a lower bound\n");
         }
+    }
+
+    /** A name for a terminal: control characters (a terminal escape in a node name) become '?'. */
+    static String plain(String s) {
+        StringBuilder b = new StringBuilder(s.length());
+        for (int i = 0; i < s.length(); i++) {
+            char c = s.charAt(i);
+            b.append(c < 0x20 || (c >= 0x7f && c < 0xa0) ? '?' : c);
+        }
+        return b.toString();
     }
 
     static String utilization(NodeEstimate n) {

@@ -140,6 +140,14 @@ class ReportsTest {
     }
 
     @Test
+    void aTerminalEscapeInANodeNameDoesNotReachTheTable() {
+        GateResult r = Gates.gate(Gates.convRelu(dir.resolve("e.onnx"), "conv\u001b[31mred", "relu", 4), Budget.none());
+        String t = Reports.console(r);
+        assertFalse(t.contains("\u001b"), t);
+        assertTrue(t.contains("conv?[31mred"), t);
+    }
+
+    @Test
     void stemsAreSafeFileNames() {
         GateResult r = Gate.evaluate(List.of(new Gate.ModelSpec("some dir/My Model (v2).onnx",
                 Gates.single(dir.resolve("one.onnx")), Map.of())), List.of(Gates.device()), Budget.none(), null, null,
