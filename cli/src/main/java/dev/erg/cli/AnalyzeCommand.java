@@ -7,13 +7,8 @@ import dev.erg.report.AnalysisTable;
 import dev.erg.workload.ModelWorkload;
 import java.io.IOException;
 import java.io.PrintWriter;
-import java.nio.file.AccessDeniedException;
-import java.nio.file.FileAlreadyExistsException;
-import java.nio.file.FileSystemException;
-import java.nio.file.NoSuchFileException;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
@@ -45,9 +40,9 @@ final class AnalyzeCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Map<String, Long> bound = parseDims(dims);
+        Map<String, Long> bound = Options.dims(spec, dims);
         if (top < 0) {
-            throw usage("--top must be 0 or more, not " + top);
+            throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
         ModelWorkload w = Analyzer.analyze(model, bound);
         PrintWriter out = spec.commandLine().getOut();
@@ -56,57 +51,11 @@ final class AnalyzeCommand implements Callable<Integer> {
             try {
                 AnalysisJson.write(w, json);
             } catch (IOException e) {
-                throw new BadInputException(json + ": cannot write the JSON report (" + why(e) + ")");
+                throw new BadInputException(json + ": cannot write the JSON report (" + Options.why(e) + ")");
             }
             out.println("JSON written to " + json);
         }
         out.flush();
         return Main.OK;
-    }
-
-    private static String why(IOException e) {
-        if (e instanceof AccessDeniedException) {
-            return "permission denied on " + ((AccessDeniedException) e).getFile();
-        }
-        if (e instanceof FileAlreadyExistsException) {
-            return ((FileAlreadyExistsException) e).getFile() + " is in the way";
-        }
-        if (e instanceof NoSuchFileException) {
-            return "no such file or folder: " + ((NoSuchFileException) e).getFile();
-        }
-        if (e instanceof FileSystemException && ((FileSystemException) e).getReason() != null) {
-            return ((FileSystemException) e).getReason();
-        }
-        return Main.oneLine(e.getMessage());
-    }
-
-    /** NAME=VALUE pairs into a map; a malformed pair is a usage error. */
-    private Map<String, Long> parseDims(List<String> specs) {
-        Map<String, Long> out = new LinkedHashMap<>();
-        for (String s : specs) {
-            int eq = s.indexOf('=');
-            if (eq <= 0) {
-                throw usage("--dim '" + s + "' is not NAME=VALUE (e.g. --dim batch=1)");
-            }
-            String name = s.substring(0, eq).trim();
-            String value = s.substring(eq + 1).trim();
-            long v;
-            try {
-                v = Long.parseLong(value);
-            } catch (NumberFormatException e) {
-                throw usage("--dim " + name + ": '" + value + "' is not a whole number");
-            }
-            if (v < 0) {
-                throw usage("--dim " + name + ": the value " + v + " is negative");
-            }
-            if (out.put(name, v) != null) {
-                throw usage("--dim " + name + " is given twice");
-            }
-        }
-        return out;
-    }
-
-    private CommandLine.ParameterException usage(String message) {
-        return new CommandLine.ParameterException(spec.commandLine(), message);
     }
 }

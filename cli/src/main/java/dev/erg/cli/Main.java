@@ -11,15 +11,18 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /**
- * The {@code erg} command. Exit codes: 0 success; 1 a budget breach (reserved); 2 bad input or bad
- * options, with one line on stderr; 3 an internal error, with one line on stderr.
+ * The {@code erg} command. Exit codes: 0 success; 1 a budget or growth limit broken ({@code erg
+ * check}); 2 bad input or bad options, with one line on stderr; 3 an internal error, with one line
+ * on stderr.
  */
 @Command(name = "erg", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
-        description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node.",
-        subcommands = {AnalyzeCommand.class, CommandLine.HelpCommand.class})
+        description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node, estimates its"
+                + " energy and latency on a device profile, and checks it against a budget.",
+        subcommands = {AnalyzeCommand.class, EstimateCommand.class, CheckCommand.class,
+                CommandLine.HelpCommand.class})
 public final class Main implements Callable<Integer> {
     public static final int OK = 0;
-    /** Reserved for budget breaches. */
+    /** A budget or growth limit is broken. */
     public static final int BUDGET_BREACH = 1;
     public static final int BAD_INPUT = 2;
     public static final int INTERNAL_ERROR = 3;

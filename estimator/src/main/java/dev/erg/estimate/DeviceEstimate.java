@@ -71,7 +71,9 @@ public final class DeviceEstimate {
      * frame rate, plus static power, which is drawn all the time.
      */
     public double averagePowerWatts(double fps) {
-        return energy.dynamic() * fps + device.staticPowerMw() * 1e-3;
+        double dynamic = energy.dynamic();
+        // A frame that costs no dynamic energy adds none at any rate, even an unbounded one (0 x inf is NaN).
+        return (dynamic == 0 ? 0 : dynamic * fps) + device.staticPowerMw() * 1e-3;
     }
 
     /** True when weights and peak activations fit the SRAM together: weights are loaded once, not per frame. */

@@ -68,16 +68,37 @@ public final class AnalysisJson {
 
     /** Writes the JSON document (UTF-8) to {@code out}; the stream is left open. */
     public static void write(ModelWorkload w, OutputStream out) throws IOException {
+        write(w, out, null);
+    }
+
+    /**
+     * Fields that a richer report adds after the analysis's own, at three places: the end of
+     * "totals", the end of each node, and the end of the document.
+     */
+    interface Extension {
+        void totals(JsonGenerator g) throws IOException;
+
+        /** Called for the node at {@code index} of the workload, inside its object, after its own fields. */
+        void node(JsonGenerator g, int index, NodeWork n) throws IOException;
+
+        void tail(JsonGenerator g) throws IOException;
+    }
+
+    /** The analysis document with the fields of {@code ext} (may be null) added after its own. */
+    static void write(ModelWorkload w, OutputStream out, Extension ext) throws IOException {
         try (JsonGenerator g = FACTORY.createGenerator(out, JsonEncoding.UTF8)) {
             g.disable(JsonGenerator.Feature.AUTO_CLOSE_TARGET);
             g.setPrettyPrinter(new Printer());
             g.writeStartObject();
             model(g, w);
-            totals(g, w);
-            nodes(g, w.nodes());
+            totals(g, w, ext);
+            nodes(g, w.nodes(), ext);
             opCounts(g, "unmodelled", w.unmodelled());
             opCounts(g, "unresolved", w.unresolved());
             g.writeStringField("notice", NOTICE);
+            if (ext != null) {
+                ext.tail(g);
+            }
             g.writeEndObject();
             g.writeRaw('\n');
         }
@@ -97,7 +118,7 @@ public final class AnalysisJson {
         g.writeEndObject();
     }
 
-    private static void totals(JsonGenerator g, ModelWorkload w) throws IOException {
+    private static void totals(JsonGenerator g, ModelWorkload w, Extension ext) throws IOException {
         g.writeObjectFieldStart("totals");
         g.writeNumberField("macs", w.macs());
         g.writeNumberField("vectorOps", w.vectorOps());
@@ -107,12 +128,16 @@ public final class AnalysisJson {
         g.writeBooleanField("complete", w.complete());
         g.writeNumberField("folded", Format.countKind(w, Kind.FOLDED));
         g.writeNumberField("views", Format.countKind(w, Kind.VIEW));
+        if (ext != null) {
+            ext.totals(g);
+        }
         g.writeEndObject();
     }
 
-    private static void nodes(JsonGenerator g, List<NodeWork> nodes) throws IOException {
+    private static void nodes(JsonGenerator g, List<NodeWork> nodes, Extension ext) throws IOException {
         g.writeArrayFieldStart("nodes");
-        for (NodeWork n : nodes) {
+        for (int i = 0; i < nodes.size(); i++) {
+            NodeWork n = nodes.get(i);
             g.writeStartObject();
             g.writeStringField("name", n.name());
             g.writeStringField("opType", n.opType());
@@ -144,6 +169,9 @@ public final class AnalysisJson {
             }
             if (n.note() != null) {
                 g.writeStringField("note", n.note());
+            }
+            if (ext != null) {
+                ext.node(g, i, n);
             }
             g.writeEndObject();
         }

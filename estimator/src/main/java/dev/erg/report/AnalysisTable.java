@@ -19,7 +19,6 @@ public final class AnalysisTable {
     public static final int DEFAULT_TOP = 15;
     /** Node names longer than this are shortened in the middle with "...". */
     static final int NAME_WIDTH = 32;
-    private static final String GAP = "  ";
 
     private AnalysisTable() {
     }
@@ -47,10 +46,10 @@ public final class AnalysisTable {
         OnnxModel m = Format.model(w);
         String producer = m == null ? "" : (m.producerName() + " " + m.producerVersion()).trim();
         out.append("model: ").append(m == null ? "?" : m.file().toString())
-                .append(GAP).append("producer: ").append(producer.isEmpty() ? "(none)" : producer)
-                .append(GAP).append("opset: ").append(m == null ? 0 : m.defaultOpset());
+                .append("  ").append("producer: ").append(producer.isEmpty() ? "(none)" : producer)
+                .append("  ").append("opset: ").append(m == null ? 0 : m.defaultOpset());
         if (m != null) {
-            out.append(GAP).append("IR: ").append(m.irVersion());
+            out.append("  ").append("IR: ").append(m.irVersion());
         }
         out.append('\n');
         Map<String, Long> dims = Format.dims(w);
@@ -79,7 +78,7 @@ public final class AnalysisTable {
         }
         out.append(shown.size() == total ? "All " + total + " nodes" : "Top " + shown.size() + " of " + total + " nodes")
                 .append(" by MACs\n");
-        Table t = new Table(">#", "node", "op", "output shape", ">MACs", ">vector ops", ">weights", ">in", ">out",
+        TextTable t = new TextTable(">#", "node", "op", "output shape", ">MACs", ">vector ops", ">weights", ">in", ">out",
                 "precision");
         int rank = 0;
         for (NodeWork n : shown) {
@@ -92,7 +91,7 @@ public final class AnalysisTable {
 
     private static void totals(StringBuilder out, ModelWorkload w) {
         out.append("Totals\n");
-        Table t = new Table("", ">", "");
+        TextTable t = new TextTable("", ">", "");
         t.row("MACs", Format.count(w.macs()), "(" + Format.exact(w.macs()) + ")");
         t.row("vector ops", Format.count(w.vectorOps()), "(" + Format.exact(w.vectorOps()) + ")");
         t.row("weights", Format.bytes(w.weightBytes()), "(" + Format.exact(w.weightBytes()) + " bytes)");
@@ -139,67 +138,5 @@ public final class AnalysisTable {
         int head = keep / 3;
         int tail = keep - head;
         return s.substring(0, head) + "..." + s.substring(s.length() - tail);
-    }
-
-    /** Columns of text; a header starting with '>' marks a right-aligned column. */
-    private static final class Table {
-        private final String[] headers;
-        private final boolean[] right;
-        private final List<String[]> rows = new ArrayList<>();
-
-        Table(String... headers) {
-            this.headers = new String[headers.length];
-            this.right = new boolean[headers.length];
-            for (int i = 0; i < headers.length; i++) {
-                right[i] = headers[i].startsWith(">");
-                this.headers[i] = right[i] ? headers[i].substring(1) : headers[i];
-            }
-        }
-
-        void row(String... cells) {
-            rows.add(cells);
-        }
-
-        private int[] widths(boolean withHeader) {
-            int[] w = new int[headers.length];
-            for (int i = 0; i < w.length; i++) {
-                w[i] = withHeader ? headers[i].length() : 0;
-                for (String[] r : rows) {
-                    w[i] = Math.max(w[i], r[i].length());
-                }
-            }
-            return w;
-        }
-
-        void appendTo(StringBuilder out, String indent) {
-            int[] w = widths(true);
-            line(out, indent, headers, w);
-            for (String[] r : rows) {
-                line(out, indent, r, w);
-            }
-        }
-
-        void appendBodyTo(StringBuilder out, String indent) {
-            int[] w = widths(false);
-            for (String[] r : rows) {
-                line(out, indent, r, w);
-            }
-        }
-
-        private void line(StringBuilder out, String indent, String[] cells, int[] w) {
-            StringBuilder b = new StringBuilder(indent);
-            for (int i = 0; i < cells.length; i++) {
-                if (i > 0) {
-                    b.append(GAP);
-                }
-                String pad = " ".repeat(w[i] - cells[i].length());
-                b.append(right[i] ? pad + cells[i] : cells[i] + pad);
-            }
-            int end = b.length();
-            while (end > 0 && b.charAt(end - 1) == ' ') {
-                end--;
-            }
-            out.append(b, 0, end).append('\n');
-        }
     }
 }

@@ -5,6 +5,10 @@ import dev.erg.onnx.OnnxModel;
 import dev.erg.workload.Kind;
 import dev.erg.workload.ModelWorkload;
 import dev.erg.workload.NodeWork;
+import java.math.BigDecimal;
+import java.math.MathContext;
+import java.math.RoundingMode;
+import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
 
@@ -135,5 +139,57 @@ final class Format {
     /** The symbolic dims bound for this analysis, sorted by name. */
     static Map<String, Long> dims(ModelWorkload w) {
         return w.graph() == null ? new TreeMap<>() : new TreeMap<>(w.graph().boundDims());
+    }
+
+    /**
+     * A quantity to three significant digits in plain notation, trailing zeros dropped: 0.0553,
+     * 2.84, 99.5, 328, 1230. "0" for zero, "∞" for an infinite value, "n/a" for NaN.
+     */
+    static String sig(double v) {
+        if (Double.isNaN(v)) {
+            return "n/a";
+        }
+        if (Double.isInfinite(v)) {
+            return v > 0 ? "∞" : "-∞";
+        }
+        if (v == 0) {
+            return "0";
+        }
+        BigDecimal d = new BigDecimal(v).round(new MathContext(3, RoundingMode.HALF_UP)).stripTrailingZeros();
+        String s = d.toPlainString();
+        return s.equals("-0") ? "0" : s;
+    }
+
+    /** {@code v} with exactly {@code decimals} digits after the point ("-" for a non-finite value). */
+    static String fixed(double v, int decimals) {
+        if (Double.isNaN(v) || Double.isInfinite(v)) {
+            return Double.isNaN(v) ? "n/a" : v > 0 ? "∞" : "-∞";
+        }
+        return String.format(Locale.ROOT, "%." + decimals + "f", v);
+    }
+
+    /** A share 0..1 as a percentage with one decimal: 84.4%. */
+    static String percent(double share) {
+        return fixed(100 * share, 1) + "%";
+    }
+
+    /** A signed delta to three significant digits: +1.2, -0.35, 0. */
+    static String signed(double v) {
+        String s = sig(v);
+        return v > 0 ? "+" + s : s;
+    }
+
+    /** A signed whole-number delta with thousands separators: +57,600, -64, 0. */
+    static String signedExact(long v) {
+        return v > 0 ? "+" + exact(v) : exact(v);
+    }
+
+    /** {@code s} with a capital first letter and a closing full stop. */
+    static String sentence(String s) {
+        if (s.isEmpty()) {
+            return s;
+        }
+        String t = Character.toUpperCase(s.charAt(0)) + s.substring(1);
+        return t.endsWith(".") ? t : t + ".";
     }
 }

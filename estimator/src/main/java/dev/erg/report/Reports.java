@@ -1,7 +1,6 @@
 package dev.erg.report;
 
 import dev.erg.BadInputException;
-import dev.erg.budget.Check;
 import dev.erg.budget.GateResult;
 import dev.erg.budget.PairResult;
 import java.io.IOException;
@@ -9,6 +8,7 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.HashSet;
 import java.util.List;
 import java.util.Locale;
 import java.util.Set;
@@ -52,38 +52,67 @@ public final class Reports {
 
     /**
      * Writes the requested formats for every pair into {@code dir}; returns the files written, in a
-     * stable order.
+     * stable order: pair by pair as in the result, and per pair {@code STEM.json}, {@code STEM.html},
+     * {@code STEM.md}, {@code TEST-erg.STEM.xml} (those requested). When two pairs share a stem (two
+     * models with the same file name), the later one's stem gets "-2", "-3"... so no file is overwritten.
      */
     public static List<Path> write(GateResult result, Path dir, Set<String> formats) {
+        for (String f : formats) {
+            if (!FORMATS.contains(f)) {
+                throw new BadInputException("formats: unknown report format '" + f + "' (known: "
+                        + new TreeSet<>(FORMATS) + ")");
+            }
+        }
         List<Path> written = new ArrayList<>();
+        Set<String> stems = new HashSet<>();
+        Path target = dir;
         try {
             Files.createDirectories(dir);
             for (PairResult p : result.pairs()) {
+                String stem = stem(p);
+                for (int i = 2; !stems.add(stem); i++) {
+                    stem = stem(p) + "-" + i;
+                }
                 if (formats.contains("json")) {
-                    Path f = dir.resolve(stem(p) + ".json");
-                    Files.write(f, GateJson.toBytes(result, p));
-                    written.add(f);
+                    target = dir.resolve(stem + ".json");
+                    Files.write(target, GateJson.toBytes(result, p));
+                    written.add(target);
+                }
+                if (formats.contains("html")) {
+                    target = dir.resolve(stem + ".html");
+                    Files.write(target, utf8(HtmlReport.render(result, p)));
+                    written.add(target);
+                }
+                if (formats.contains("markdown")) {
+                    target = dir.resolve(stem + ".md");
+                    Files.write(target, utf8(MarkdownReport.render(result, p)));
+                    written.add(target);
+                }
+                if (formats.contains("junit")) {
+                    target = dir.resolve("TEST-erg." + stem + ".xml");
+                    Files.write(target, utf8(JUnitReport.render(result, p, stem)));
+                    written.add(target);
                 }
             }
         } catch (IOException e) {
-            throw new BadInputException(dir + ": cannot write the reports (" + e.getMessage() + ")");
+            throw new BadInputException(target + ": cannot write the report (" + e.getClass().getSimpleName()
+                    + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
         }
         return written;
     }
 
-    /** The console rendering: one line per pair and the verdict. */
+    /**
+     * The console rendering: per pair the {@value ConsoleReport#DEFAULT_TOP} layers of most energy, the
+     * totals and every check (ok / FAIL with its message verbatim), then the verdict. The baseline
+     * note ({@link GateResult#baselineNote()}) is not part of it: front ends log it themselves.
+     */
     public static String console(GateResult result) {
-        StringBuilder b = new StringBuilder();
-        for (PairResult p : result.pairs()) {
-            b.append(String.format(Locale.ROOT, "%s on %s: %.4g fps max, %.4g mJ per frame, %s%n", p.model(),
-                    p.device(), p.estimate().maxFps(), p.estimate().energyPerFrameJoules() * 1e3,
-                    p.passed() ? "pass" : "FAIL"));
-            for (Check c : p.checks()) {
-                b.append("  ").append(c.passed() ? "ok   " : "FAIL ").append(c.message()).append('\n');
-            }
-        }
-        b.append(result.passed() ? "erg: all budgets hold\n" : "erg: " + result.failureMessage() + "\n");
-        return b.toString();
+        return ConsoleReport.gate(result, ConsoleReport.DEFAULT_TOP);
+    }
+
+    /** As {@link #console(GateResult)}, listing {@code top} layers per pair. */
+    public static String console(GateResult result, int top) {
+        return ConsoleReport.gate(result, top);
     }
 
     static byte[] utf8(String s) {
