@@ -19,7 +19,7 @@ import groovy.transform.Field
 // Only the JSON writer exists behind dev.erg.report.Reports today. When the HTML, Markdown and
 // JUnit writers arrive, switch their checks on by editing this one line:
 //     @Field List<String> REPORT_FORMATS = ['json', 'html', 'markdown', 'junit']
-@Field List<String> REPORT_FORMATS = ['json']
+@Field List<String> REPORT_FORMATS = ['json', 'html', 'markdown', 'junit']
 
 /** The file a format writes for a pair's file-name stem. */
 String reportFile(String format, String stem) {

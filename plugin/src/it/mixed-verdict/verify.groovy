@@ -9,10 +9,14 @@ assert r.pairs()*.passed() == [true, true, false, false]
 erg.consoleOf(r)
 erg.failedOnBudget(r)
 // literal: the verdict per pair, and the weights of the grown model (11,736 bytes at int8) over 8 KiB
-erg.logged('[INFO] src/main/onnx/small.onnx on preset:feeder-npu: ')
+erg.logged('[INFO] src/main/onnx/small.onnx on preset:feeder-npu (')
+def lines = erg.logLines()
 [['small', 'preset:feeder-npu', 'pass'], ['small', 'src/erg/slow-npu.yaml', 'pass'],
  ['grown', 'preset:feeder-npu', 'FAIL'], ['grown', 'src/erg/slow-npu.yaml', 'FAIL']].each { m, d, v ->
-    assert erg.logLines().any { it.startsWith("[INFO] src/main/onnx/${m}.onnx on ${d}: ") && it.endsWith(", ${v}") }
+    int head = lines.findIndexOf { it.startsWith("[INFO] src/main/onnx/${m}.onnx on ${d} (") }
+    assert head >= 0 : "no console section for ${m} on ${d}"
+    def verdict = lines.drop(head).find { it.startsWith('[INFO] verdict: ') }
+    assert verdict != null && verdict.startsWith("[INFO] verdict: ${v}") : "verdict of ${m} on ${d}: ${verdict}"
 }
 erg.logged('[ERROR]   - src/main/onnx/grown.onnx on src/erg/slow-npu.yaml: frame rate ')
 erg.logged('[ERROR]   - src/main/onnx/grown.onnx on preset:feeder-npu: weights 11.46 KiB exceed the limit of 8 KiB'

@@ -56,7 +56,7 @@ class CheckCommandTest {
                 "--max-power-mw", "1", "--report-dir", reports.toString(), "--formats", "json,junit");
         assertEquals(1, r.code, r.toString());
         assertEquals("", r.err);
-        String msg = model + " on " + device + ": average power 1.07 mW at 1000 fps exceeds the limit of 1 mW"
+        String msg = model + " on " + device + ": average power 1.07 mW at 1000 fps exceeds the limit of 1 mW; static power is 1 mW of it"
                 + " (top layers by energy: conv 100.0%)";
         assertTrue(r.out.contains("\n  FAIL " + msg + "\n"), r.out);
         assertTrue(r.out.contains("\nerg: 1 budget violation:\n  - " + msg + "\n"), r.out);
