@@ -36,7 +36,7 @@ import java.util.Map;
  */
 public final class AnalysisJson {
     /** Says what the figures are, in every report. */
-    public static final String NOTICE = "These figures are analytical counts from the model graph, not measurements:"
+    public static final String NOTICE = "These figures are analytical estimates, not measurements:"
             + " measure on the real silicon before making a product decision.";
 
     private static final JsonFactory FACTORY = JsonFactory.builder().build();
