@@ -220,7 +220,7 @@ public final class GraphBuilder {
             v.markGraphOutput();
             outputs.add(v);
         }
-        return new Graph(model, order, values, inputs, outputs, inits, used);
+        return new Graph(model, order, values, inputs, outputs, inits, used, outer);
     }
 
     /** Names a subgraph reads from its enclosing scopes. */

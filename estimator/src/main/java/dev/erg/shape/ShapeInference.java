@@ -69,6 +69,11 @@ public final class ShapeInference {
             throw c.fail("cannot be shaped (" + e.getClass().getSimpleName()
                     + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
         }
+        if (c.unmodelledReason() != null) {
+            n.setStatus(Node.Status.UNMODELLED);
+            c.note(c.unmodelledReason());
+            return;
+        }
         for (int i = 0; i < n.outputs().size(); i++) {
             Value v = n.output(i);
             if (v != null && !v.hasShape()) {

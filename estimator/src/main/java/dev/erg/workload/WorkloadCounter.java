@@ -72,11 +72,28 @@ public final class WorkloadCounter {
                     weights = Math.addExact(weights, t.bytes());
                 }
             }
+            for (TensorDef t : subgraphInitializers(g)) {
+                if (counted.add(t)) {
+                    weights = Math.addExact(weights, t.bytes());
+                }
+            }
             peak = peakActivation(g);
         } catch (ArithmeticException e) {
             throw overflow(g, "the model's weight or activation bytes overflow 64 bits");
         }
         return new ModelWorkload(g, works, macs, vector, weights, peak, unmodelled, unresolved);
+    }
+
+    /** The initializers of every subgraph that runs as part of a node of {@code g}, nested ones too. */
+    private static List<TensorDef> subgraphInitializers(Graph g) {
+        List<TensorDef> out = new ArrayList<>();
+        for (Node n : g.nodes()) {
+            for (Graph sub : n.subgraphs()) {
+                out.addAll(sub.initializers());
+                out.addAll(subgraphInitializers(sub));
+            }
+        }
+        return out;
     }
 
     private static BadInputException overflow(Graph g, String what) {
@@ -97,8 +114,16 @@ public final class WorkloadCounter {
         } else {
             b = new NodeWork.Builder(n, e.kind);
             e.rule.count(n, b);
-            addSubgraphs(n, b);
+            addSubgraphs(n, b, unmodelled, unresolved);
             bytes(n, b, e);
+        }
+        if (b.kind == Kind.UNMODELLED || b.kind == Kind.UNRESOLVED) {
+            // What a subgraph could not model is listed with the rest, never hidden inside the node.
+            for (Graph sub : n.subgraphs()) {
+                ModelWorkload w = countGraph(sub);
+                w.unmodelled().forEach((k, v) -> unmodelled.merge(k, v, Integer::sum));
+                w.unresolved().forEach((k, v) -> unresolved.merge(k, v, Integer::sum));
+            }
         }
         b.note = n.note();
         b.outputShapes = shapes(n);
@@ -108,10 +133,16 @@ public final class WorkloadCounter {
         return new NodeWork(b);
     }
 
-    /** A taken If branch or a Loop body: its nodes' arithmetic, times the trip count, joins the node's. */
-    private void addSubgraphs(Node n, NodeWork.Builder b) {
+    /**
+     * A taken If branch, a Loop or Scan body: its nodes' arithmetic, times the trip count, joins the
+     * node's; what the subgraph could not model joins the model's lists.
+     */
+    private void addSubgraphs(Node n, NodeWork.Builder b, Map<String, Integer> unmodelled,
+                              Map<String, Integer> unresolved) {
         for (Graph sub : n.subgraphs()) {
             ModelWorkload w = countGraph(sub);
+            w.unmodelled().forEach((k, v) -> unmodelled.merge(k, v, Integer::sum));
+            w.unresolved().forEach((k, v) -> unresolved.merge(k, v, Integer::sum));
             b.macs = Math.addExact(b.macs, Math.multiplyExact(w.macs(), n.repeat()));
             b.vectorOps = Math.addExact(b.vectorOps, Math.multiplyExact(w.vectorOps(), n.repeat()));
             if (w.macs() > 0 && b.kind != Kind.MAC) {
