@@ -46,6 +46,8 @@ public final class RuleTable {
         RecurrentRules.register(t);
         QuantRules.register(t);
         ControlRules.register(t);
+        DataDependentRules.register(t);
+        GeneratorRules.register(t);
         return t;
     }
 }
