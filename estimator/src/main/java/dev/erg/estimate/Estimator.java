@@ -365,7 +365,9 @@ public final class Estimator {
         final long bytes;
         int start = -1;
         int end = -1;
-        final List<Integer> uses = new ArrayList<>();
+        /** The steps that read or write the buffer, ascending and distinct (the schedule is swept in order). */
+        int[] uses = new int[2];
+        int useCount;
         boolean inDram;
         int evictedUntil = -1;
 
@@ -374,13 +376,26 @@ public final class Estimator {
             this.bytes = bytes;
         }
 
-        int nextUseAfter(int step) {
-            for (int u : uses) {
-                if (u > step) {
-                    return u;
-                }
+        /** Records a use at {@code step}, which is never before the last one recorded. */
+        void use(int step) {
+            if (useCount > 0 && uses[useCount - 1] == step) {
+                return;
             }
-            return -1;
+            if (useCount == uses.length) {
+                uses = java.util.Arrays.copyOf(uses, 2 * useCount);
+            }
+            uses[useCount++] = step;
+        }
+
+        boolean usedAt(int step) {
+            return java.util.Arrays.binarySearch(uses, 0, useCount, step) >= 0;
+        }
+
+        /** The first use after {@code step}, or -1: a binary search of the sorted uses. */
+        int nextUseAfter(int step) {
+            int i = java.util.Arrays.binarySearch(uses, 0, useCount, step);
+            int next = i >= 0 ? i + 1 : -i - 1;
+            return next < useCount ? uses[next] : -1;
         }
     }
 
@@ -415,9 +430,7 @@ public final class Estimator {
                     b.start = i;
                 }
                 b.end = Math.max(b.end, i);
-                if (b.uses.isEmpty() || b.uses.get(b.uses.size() - 1) != i) {
-                    b.uses.add(i);
-                }
+                b.use(i);
             }
             for (Value v : node.outputs()) {
                 if (v == null || v.isConstant()) {
@@ -433,7 +446,7 @@ public final class Estimator {
                 Buffer b = new Buffer(v, actBytes(v));
                 b.start = i;
                 b.end = i;
-                b.uses.add(i);
+                b.use(i);
                 bufOf.put(v, b);
                 buffers.add(b);
             }
@@ -491,7 +504,7 @@ public final class Estimator {
             long ownBytes = 0;
             for (Value v : node.inputs()) {
                 Buffer b = v == null ? null : bufOf.get(v);
-                if (b != null && b.uses.contains(i) && touched.add(b)) {
+                if (b != null && b.usedAt(i) && touched.add(b)) {
                     ownBytes += b.bytes;
                 }
             }

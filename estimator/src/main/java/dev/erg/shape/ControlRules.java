@@ -3,6 +3,7 @@ package dev.erg.shape;
 import dev.erg.graph.Graph;
 import dev.erg.graph.GraphBuilder;
 import dev.erg.graph.Node;
+import dev.erg.graph.Scope;
 import dev.erg.graph.Value;
 import dev.erg.onnx.AttributeDef;
 import dev.erg.onnx.ElemType;
@@ -10,7 +11,6 @@ import dev.erg.onnx.GraphDef;
 import dev.erg.onnx.TensorValues;
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.HashMap;
 import java.util.List;
 import java.util.Map;
 
@@ -37,9 +37,7 @@ final class ControlRules {
 
     /** Every value a subgraph of this node can read: the enclosing scopes' and this graph's own. */
     static Map<String, Value> scope(InferContext c) {
-        Map<String, Value> scope = new HashMap<>(c.graph().outerScope());
-        scope.putAll(c.graph().values());
-        return scope;
+        return Scope.of(c.graph());
     }
 
     static GraphDef body(InferContext c, String attrName) {

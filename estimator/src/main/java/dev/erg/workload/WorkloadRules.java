@@ -7,7 +7,7 @@ import dev.erg.shape.Shapes;
 import java.util.Collections;
 import java.util.Map;
 import java.util.Set;
-import java.util.TreeMap;
+import java.util.HashMap;
 
 /**
  * The table of workload rules: per operator, its kind, how its arithmetic is counted and which
@@ -30,7 +30,7 @@ public final class WorkloadRules {
         }
     }
 
-    private final Map<String, Entry> table = new TreeMap<>();
+    private final Map<String, Entry> table = new HashMap<>();
 
     private static final WorkloadRules STANDARD = build();
 
@@ -55,7 +55,7 @@ public final class WorkloadRules {
     }
 
     public Set<String> operators() {
-        return Collections.unmodifiableSet(table.keySet());
+        return Collections.unmodifiableSet(new java.util.TreeSet<>(table.keySet()));
     }
 
     private void add(String op, Kind kind, WorkRule rule, Integer... params) {
