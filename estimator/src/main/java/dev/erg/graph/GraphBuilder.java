@@ -57,13 +57,7 @@ public final class GraphBuilder {
                 (int) ((g.initializers().size() + g.inputs().size() + 2L * g.nodes().size()) / 0.75f) + 16);
         List<TensorDef> inits = g.initializers();
         for (TensorDef t : inits) {
-            Value v = new Value(t.name());
-            v.setStored(t);
-            v.setType(t.type(), t.dims());
-            v.setData(t.values());
-            if (values.put(t.name(), v) != null) {
-                throw bad("initializer '" + t.name() + "' is defined twice");
-            }
+            addInitializer(values, t);
         }
         List<Value> inputs = new ArrayList<>();
         for (ValueDef in : g.inputs()) {
@@ -85,17 +79,7 @@ public final class GraphBuilder {
         List<NodeDef> defs = g.nodes();
         int count = defs.size();
         for (int i = 0; i < count; i++) {
-            NodeDef d = defs.get(i);
-            for (String out : d.outputs()) {
-                if (out.isEmpty()) {
-                    continue;
-                }
-                Value v = new Value(out);
-                v.fileProducer = i;
-                if (values.putIfAbsent(out, v) != null) {
-                    throw bad("value '" + out + "' is produced twice (again by node " + label(d, i) + ")");
-                }
-            }
+            addOutputs(values, defs.get(i), i);
         }
         // Link inputs; collect dependencies (deduplicated with a stamp per producer). The per-node work is
         // a method of its own, so that the JIT compiles it once rather than the whole loop on the stack.
@@ -116,20 +100,8 @@ public final class GraphBuilder {
         } else {
             order = kahn(nodes, depsOf);
         }
-        for (Node n : order) {
-            for (Value v : n.inputs()) {
-                if (v != null) {
-                    v.consumers().add(n);
-                }
-            }
-            for (Value v : n.implicitInputs()) {
-                v.consumers().add(n);
-            }
-            for (Value v : n.outputs()) {
-                if (v != null) {
-                    v.setProducer(n);
-                }
-            }
+        for (int i = 0; i < order.size(); i++) {
+            connect(order.get(i));
         }
         List<Value> outputs = new ArrayList<>();
         for (ValueDef o : g.outputs()) {
@@ -144,6 +116,56 @@ public final class GraphBuilder {
             outputs.add(v);
         }
         return new Graph(model, order, values, inputs, outputs, inits, used, outer);
+    }
+
+    // The loops over every node call small methods, so that the JIT compiles those rather than the
+    // whole of build() on the stack.
+
+    private void addInitializer(Map<String, Value> values, TensorDef t) {
+        Value v = new Value(t.name());
+        v.setStored(t);
+        v.setType(t.type(), t.dims());
+        v.setData(t.values());
+        if (values.put(t.name(), v) != null) {
+            throw bad("initializer '" + t.name() + "' is defined twice");
+        }
+    }
+
+    /** Makes the values node {@code i} produces; each remembers its producer's file index. */
+    private void addOutputs(Map<String, Value> values, NodeDef d, int i) {
+        List<String> outs = d.outputs();
+        for (int k = 0; k < outs.size(); k++) {
+            String out = outs.get(k);
+            if (out.isEmpty()) {
+                continue;
+            }
+            Value v = new Value(out);
+            v.fileProducer = i;
+            if (values.putIfAbsent(out, v) != null) {
+                throw bad("value '" + out + "' is produced twice (again by node " + label(d, i) + ")");
+            }
+        }
+    }
+
+    /** Links {@code n} to the values it reads (as a consumer, in topological order) and makes. */
+    private static void connect(Node n) {
+        List<Value> ins = n.inputs();
+        for (int k = 0; k < ins.size(); k++) {
+            Value v = ins.get(k);
+            if (v != null) {
+                v.consumers().add(n);
+            }
+        }
+        for (Value v : n.implicitInputs()) {
+            v.consumers().add(n);
+        }
+        List<Value> outs = n.outputs();
+        for (int k = 0; k < outs.size(); k++) {
+            Value v = outs.get(k);
+            if (v != null) {
+                v.setProducer(n);
+            }
+        }
     }
 
     /** Links one node at a time: its input values, the values its subgraphs read, its dependencies. */

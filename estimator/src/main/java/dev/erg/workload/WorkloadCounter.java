@@ -295,36 +295,8 @@ public final class WorkloadCounter {
             buffers.add(b);
         }
         WorkloadRules table = WorkloadRules.standard();
-        for (Node n : nodes) {
-            int step = n.index();
-            for (Value v : n.inputs()) {
-                long[] b = v == null ? null : bufferOf.get(v);
-                if (b != null && b[1] < step) {
-                    b[1] = step;
-                }
-            }
-            for (Value v : n.implicitInputs()) {
-                long[] b = bufferOf.get(v);
-                if (b != null && b[1] < step) {
-                    b[1] = step;
-                }
-            }
-            WorkloadRules.Entry e = table.get(n.opType());
-            boolean view = e != null && e.kind == Kind.VIEW && !n.isFolded() && n.status() == Node.Status.SHAPED;
-            for (int o = 0; o < n.outputs().size(); o++) {
-                Value v = n.output(o);
-                if (v == null || v.isConstant()) {
-                    continue;
-                }
-                long[] in = view && o == 0 && n.input(0) != null ? bufferOf.get(n.input(0)) : null;
-                if (in != null) {
-                    bufferOf.put(v, in);
-                } else {
-                    long[] b = {step, step, v.bytes()};
-                    bufferOf.put(v, b);
-                    buffers.add(b);
-                }
-            }
+        for (int i = 0; i < steps; i++) {
+            liveRange(nodes.get(i), table, bufferOf, buffers);
         }
         for (Value v : g.outputs()) {
             long[] b = bufferOf.get(v);
@@ -344,6 +316,41 @@ public final class WorkloadCounter {
             peak = Math.max(peak, live);
         }
         return peak;
+    }
+
+    /** Extends the buffers {@code n} reads to its step and opens those it makes (a view shares its input's). */
+    private static void liveRange(Node n, WorkloadRules table, Map<Value, long[]> bufferOf, List<long[]> buffers) {
+        int step = n.index();
+        List<Value> ins = n.inputs();
+        for (int k = 0; k < ins.size(); k++) {
+            Value v = ins.get(k);
+            long[] b = v == null ? null : bufferOf.get(v);
+            if (b != null && b[1] < step) {
+                b[1] = step;
+            }
+        }
+        for (Value v : n.implicitInputs()) {
+            long[] b = bufferOf.get(v);
+            if (b != null && b[1] < step) {
+                b[1] = step;
+            }
+        }
+        WorkloadRules.Entry e = table.get(n.opType());
+        boolean view = e != null && e.kind == Kind.VIEW && !n.isFolded() && n.status() == Node.Status.SHAPED;
+        for (int o = 0; o < n.outputs().size(); o++) {
+            Value v = n.output(o);
+            if (v == null || v.isConstant()) {
+                continue;
+            }
+            long[] in = view && o == 0 && n.input(0) != null ? bufferOf.get(n.input(0)) : null;
+            if (in != null) {
+                bufferOf.put(v, in);
+            } else {
+                long[] b = {step, step, v.bytes()};
+                bufferOf.put(v, b);
+                buffers.add(b);
+            }
+        }
     }
 
     static Map<String, Integer> counts(Map<String, Integer> m) {
