@@ -65,6 +65,25 @@ class OpsetFormsShapeTest {
         assertBad(18, mismatch, "'sp' (Split)", "num_outputs 3 but 2 outputs");
     }
 
+    /** Split-1 took the sizes as an attribute or as a second input; Split-2 and -11 as the attribute only. */
+    @Test
+    @DisplayName("ONNX operator definitions: Split, opsets 1 (split input) and 2 (split attribute)")
+    void splitEarlyForms() {
+        OnnxWriter.Graph v1 = g()
+                .input("x", ElemType.FLOAT, 6, 2)
+                .longs("parts", 1, 5)
+                .node("Split", "sp", List.of("x", "parts"), List.of("a", "b"))
+                .output("a", ElemType.FLOAT);
+        Graph s1 = shaped(1, v1);
+        assertArrayEquals(new long[] {1, 2}, dims(s1, "a"));
+        assertArrayEquals(new long[] {5, 2}, dims(s1, "b"));
+        OnnxWriter.Graph v2 = g()
+                .input("x", ElemType.FLOAT, 6, 2)
+                .node("Split", "sp", List.of("x"), List.of("a", "b"), OnnxWriter.ints("split", 4, 2))
+                .output("a", ElemType.FLOAT);
+        assertArrayEquals(new long[] {2, 2}, dims(shaped(7, v2), "b"));
+    }
+
     /** Slice-1: starts, ends and axes are attributes; ends past the dim clamp to it. */
     @Test
     @DisplayName("ONNX operator definition: Slice, opset 1 (model opset 9; attributes)")
