@@ -9,11 +9,11 @@
 # What it does (see docs/benchmark.md, "Scale"):
 #   1. builds cli/target/erg.jar with Maven unless a jar newer than every source is already there;
 #   2. writes synthetic transformer-like models of each node count with OnnxWriter
-#      (bench/src/ScaleModels.java) into bench/work/;
+#      (bench/src/ScaleModels.java) into bench/work/, and a variant with one If per block;
 #   3. times, as whole processes with JVM start, 'java -jar cli/target/erg.jar analyze' on each model
-#      and the analysis plus a device estimate (bench/src/EstimateBench.java, preset generic-45nm),
-#      RUNS times each, interleaved; wall time around each process, CPU time (user + sys) and peak
-#      RSS from GNU time;
+#      and on its If variant (analyze-if), and the analysis plus a device estimate
+#      (bench/src/EstimateBench.java, preset generic-45nm), RUNS times each, interleaved; wall time
+#      around each process, CPU time (user + sys) and peak RSS from GNU time;
 #   4. prints the medians, the time per node, the least-squares line through (nodes, median wall) and
 #      whether the largest model stays under the 2 s budget.
 # The machine's load average is printed beside the numbers: other work on the 2 cores shows up in the
@@ -61,21 +61,25 @@ if [ ! -f "$work/classes/ScaleModels.class" ] || [ ! -f "$work/classes/EstimateB
    || [ bench/src/EstimateBench.java -nt "$work/classes/EstimateBench.class" ] || [ "$jar" -nt "$work/classes/ScaleModels.class" ]; then
   javac -d "$work/classes" -cp "$jar" bench/src/ScaleModels.java bench/src/EstimateBench.java
 fi
-missing=""
-for n in $sizes; do
-  f="$work/scale_$n.onnx"
-  if [ ! -f "$f" ] || [ "$work/classes/ScaleModels.class" -nt "$f" ]; then missing+=" $n"; fi
+for variant in scale scale_if; do
+  missing=""
+  for n in $sizes; do
+    f="$work/${variant}_$n.onnx"
+    if [ ! -f "$f" ] || [ "$work/classes/ScaleModels.class" -nt "$f" ]; then missing+=" $n"; fi
+  done
+  if [ -n "$missing" ]; then
+    say "writing the $variant models:$missing"
+    java -cp "$jar:$work/classes" ScaleModels "$work" $([ "$variant" = scale_if ] && echo --if) $missing >&2
+  fi
 done
-if [ -n "$missing" ]; then
-  say "writing the models:$missing"
-  java -cp "$jar:$work/classes" ScaleModels "$work" $missing >&2
-fi
 
 # Every analysis must succeed, see every node and leave none unmodelled.
-for n in $sizes; do
-  java -jar "$jar" analyze "$work/scale_$n.onnx" --dim batch=1 --fail-on-unmodelled --json "$work/scale_$n.json" >/dev/null
-  got=$(sed -n 's/^    "nodes": \([0-9]*\),$/\1/p' "$work/scale_$n.json")
-  [ "$got" = "$n" ] || { say "scale_$n.onnx: erg saw $got nodes, not $n"; exit 1; }
+for variant in scale scale_if; do
+  for n in $sizes; do
+    java -jar "$jar" analyze "$work/${variant}_$n.onnx" --dim batch=1 --fail-on-unmodelled --json "$work/${variant}_$n.json" >/dev/null
+    got=$(sed -n 's/^    "nodes": \([0-9]*\),$/\1/p' "$work/${variant}_$n.json")
+    [ "$got" = "$n" ] || { say "${variant}_$n.onnx: erg saw $got nodes, not $n"; exit 1; }
+  done
 done
 
 # ---- measurement -------------------------------------------------------------------------------
@@ -104,10 +108,11 @@ median() { tr ' ' '\n' <<<"$1" | grep -v '^$' | sort -n | awk '{a[NR]=$1} END {p
 say "warm-up"
 for n in $sizes; do java -jar "$jar" analyze "$work/scale_$n.onnx" --dim batch=1 >/dev/null; done
 load_before=$(cut -d' ' -f1-3 /proc/loadavg)
-say "timing: $runs rounds over $(wc -w <<<"$sizes") models, analyze and estimate"
+say "timing: $runs rounds over $(wc -w <<<"$sizes") sizes: analyze, analyze of the If variant, estimate"
 for ((i = 0; i < runs; i++)); do
   for n in $sizes; do
     measure "analyze_$n" java -jar "$jar" analyze "$work/scale_$n.onnx" --dim batch=1
+    measure "analyze-if_$n" java -jar "$jar" analyze "$work/scale_if_$n.onnx" --dim batch=1
     measure "estimate_$n" java -cp "$jar:$work/classes" EstimateBench "$work/scale_$n.onnx"
   done
 done
@@ -121,7 +126,7 @@ mib() { awk -v k="$1" 'BEGIN { printf "%.0f", k / 1024 }'; }
   echo "median of $runs runs, whole process with JVM start; load average before: $load_before, after: $load_after"
   echo
   printf '%-10s %-9s %10s %12s %10s %9s\n' "command" "nodes" "wall" "us/node" "CPU" "peak RSS"
-  for what in analyze estimate; do
+  for what in analyze analyze-if estimate; do
     for n in $sizes; do
       k="${what}_$n"
       w=$(median "${wall[$k]}")
@@ -133,7 +138,7 @@ mib() { awk -v k="$1" 'BEGIN { printf "%.0f", k / 1024 }'; }
     done
   done
   echo
-  for what in analyze estimate; do
+  for what in analyze analyze-if estimate; do
     pts=""
     for n in $sizes; do pts+="$n $(median "${wall["${what}_$n"]}") "; done
     awk -v what="$what" -v pts="$pts" 'BEGIN {

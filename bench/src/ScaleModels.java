@@ -23,7 +23,10 @@ import java.util.List;
  * Every block has its own weights, stored as external data (the data file is not written: erg never
  * opens it), so that a 100k-node model has ~16k initializers and stays a few MB on disk.
  *
- * Usage: java -cp erg.jar:classes ScaleModels OUT_DIR NODES...
+ * With --if (before the counts), each block's activation sits in an If with a constant condition
+ * (files scale_if_N.onnx): a graph with one control-flow node per block.
+ *
+ * Usage: java -cp erg.jar:classes ScaleModels OUT_DIR [--if] NODES...
  */
 public final class ScaleModels {
     static final int NODES_PER_BLOCK = 41;
@@ -48,7 +51,7 @@ public final class ScaleModels {
         offset += bytes;
     }
 
-    static OnnxWriter.Graph model(int nodes) {
+    static OnnxWriter.Graph model(int nodes, boolean withIf) {
         offset = 0;
         OnnxWriter.Graph g = new OnnxWriter.Graph("scale_" + nodes)
                 .inputDims("x", ElemType.FLOAT, "batch", SEQ, D)
@@ -57,7 +60,8 @@ public final class ScaleModels {
                 .longs("ax0", 0)
                 .longs("heads", HEADS, D / HEADS)
                 .longs("dmodel", D)
-                .initializer(new OnnxWriter.Tensor("scale", ElemType.FLOAT).floats((float) Math.sqrt(D / HEADS)));
+                .initializer(new OnnxWriter.Tensor("scale", ElemType.FLOAT).floats((float) Math.sqrt(D / HEADS)))
+                .initializer(new OnnxWriter.Tensor("use_gelu", ElemType.BOOL).raw(new byte[] {1}));
         int blocks = nodes / NODES_PER_BLOCK;
         String x = "x";
         int count = 0;
@@ -120,7 +124,20 @@ public final class ScaleModels {
                     OnnxWriter.attr("axis", -1L));
             g.node("MatMul", p + "ff1/mm", List.of(p + "h2", p + "ff1.w"), List.of(p + "f0"));
             g.node("Add", p + "ff1/add", List.of(p + "f0", p + "ff1.b"), List.of(p + "f1"));
-            g.node("Gelu", p + "gelu", List.of(p + "f1"), List.of(p + "f2"));
+            if (withIf) {
+                // The activation inside an If whose condition is a constant (as some exporters write
+                // a config switch): the taken branch reads f1 from the enclosing scope.
+                OnnxWriter.Graph then = new OnnxWriter.Graph(p + "then")
+                        .node("Gelu", p + "gelu", List.of(p + "f1"), List.of(p + "f2t"))
+                        .output(p + "f2t", ElemType.FLOAT);
+                OnnxWriter.Graph other = new OnnxWriter.Graph(p + "else")
+                        .node("Relu", p + "relu", List.of(p + "f1"), List.of(p + "f2e"))
+                        .output(p + "f2e", ElemType.FLOAT);
+                g.node("If", p + "act", List.of("use_gelu"), List.of(p + "f2"), OnnxWriter.graph("then_branch", then),
+                        OnnxWriter.graph("else_branch", other));
+            } else {
+                g.node("Gelu", p + "gelu", List.of(p + "f1"), List.of(p + "f2"));
+            }
             g.node("MatMul", p + "ff2/mm", List.of(p + "f2", p + "ff2.w"), List.of(p + "f3"));
             g.node("Add", p + "ff2/add", List.of(p + "f3", p + "ff2.b"), List.of(p + "f4"));
             g.node("Add", p + "res2", List.of(p + "r1", p + "f4"), List.of(p + "y"));
@@ -140,11 +157,16 @@ public final class ScaleModels {
     public static void main(String[] args) throws Exception {
         Path out = Path.of(args.length > 0 ? args[0] : "bench/work");
         Files.createDirectories(out);
+        boolean withIf = false;
         for (int i = 1; i < args.length; i++) {
+            if (args[i].equals("--if")) {
+                withIf = true;
+                continue;
+            }
             int n = Integer.parseInt(args[i]);
-            Path f = out.resolve("scale_" + n + ".onnx");
+            Path f = out.resolve((withIf ? "scale_if_" : "scale_") + n + ".onnx");
             // Opset 20: LayerNormalization (17) and Gelu (20) are standard operators there.
-            new OnnxWriter.Model(20, model(n)).write(f);
+            new OnnxWriter.Model(20, model(n, withIf)).write(f);
             System.out.println("wrote " + f + " (" + n + " nodes, " + Files.size(f) + " bytes)");
         }
     }
