@@ -7,13 +7,13 @@ import java.util.List;
 
 /**
  * Writes synthetic transformer-like models of a given node count for the scale benchmark
- * (bench/scale.sh). Each encoder block is 41 nodes, the way exporters write attention at opset 17:
+ * (bench/scale.sh). Each encoder block is 42 nodes, the way exporters write attention at opset 17:
  *
  * <pre>
  * LayerNormalization
  * Shape -> Gather(0), Gather(1) -> Unsqueeze x2 -> Concat(b, s, heads, head_dim)   (head shape)
  * Q, K, V: MatMul -> Add -> Reshape(head shape) -> Transpose                        (x3)
- * MatMul(Q, K^T) -> Div -> Softmax -> MatMul(., V) -> Transpose
+ * MatMul(Q, K^T) -> Div -> Add(mask) -> Softmax -> MatMul(., V) -> Transpose
  * Shape -> Gather(0), Gather(1) -> Unsqueeze x2 -> Concat(b, s, d) -> Reshape    (merge heads)
  * MatMul -> Add -> Add(residual)
  * LayerNormalization -> MatMul -> Add -> Gelu -> MatMul -> Add -> Add(residual)
@@ -29,7 +29,7 @@ import java.util.List;
  * Usage: java -cp erg.jar:classes ScaleModels OUT_DIR [--if] NODES...
  */
 public final class ScaleModels {
-    static final int NODES_PER_BLOCK = 41;
+    static final int NODES_PER_BLOCK = 42;
     static final long BATCH = 1;
     static final long SEQ = 32;
     static final long D = 64;
@@ -55,6 +55,7 @@ public final class ScaleModels {
         offset = 0;
         OnnxWriter.Graph g = new OnnxWriter.Graph("scale_" + nodes)
                 .inputDims("x", ElemType.FLOAT, "batch", SEQ, D)
+                .inputDims("mask", ElemType.FLOAT, "batch", 1, SEQ, SEQ)
                 .initializer(new OnnxWriter.Tensor("i0", ElemType.INT64).longs(0))
                 .initializer(new OnnxWriter.Tensor("i1", ElemType.INT64).longs(1))
                 .longs("ax0", 0)
@@ -94,10 +95,12 @@ public final class ScaleModels {
             }
             g.node("MatMul", p + "scores", List.of(heads.get(0), heads.get(1)), List.of(p + "s0"));
             g.node("Div", p + "scale", List.of(p + "s0", "scale"), List.of(p + "s1"));
-            g.node("Softmax", p + "softmax", List.of(p + "s1"), List.of(p + "s2"), OnnxWriter.attr("axis", -1L));
+            // The attention mask, one graph input that every block reads.
+            g.node("Add", p + "mask", List.of(p + "s1", "mask"), List.of(p + "s1m"));
+            g.node("Softmax", p + "softmax", List.of(p + "s1m"), List.of(p + "s2"), OnnxWriter.attr("axis", -1L));
             g.node("MatMul", p + "ctx", List.of(p + "s2", heads.get(2)), List.of(p + "c0"));
             g.node("Transpose", p + "ctx/tr", List.of(p + "c0"), List.of(p + "c1"), OnnxWriter.ints("perm", 0, 2, 1, 3));
-            count += 5;
+            count += 6;
             // Merge the heads back: [b, s, d] from the runtime shape again.
             g.node("Shape", p + "shape2", List.of(p + "c1"), List.of(p + "sh2"));
             g.node("Gather", p + "g2", List.of(p + "sh2", "i0"), List.of(p + "bs2"), OnnxWriter.attr("axis", 0L));
