@@ -658,7 +658,24 @@ public final class Estimator {
         e.energy = new Energy(compute, regJ, sramJ, dramJ, leak);
     }
 
+    /** Energies already looked up: every node of one precision on one engine asks the same question. */
+    private record EnergyKey(Engine engine, String precision, String what) {
+    }
+
+    private final Map<EnergyKey, Double> energyCache = new HashMap<>();
+
     private double energy(Engine engine, String precision, String what) {
+        EnergyKey key = new EnergyKey(engine, precision, what);
+        Double known = energyCache.get(key);
+        if (known != null) {
+            return known;
+        }
+        double fj = lookupEnergy(engine, precision, what);
+        energyCache.put(key, fj);
+        return fj;
+    }
+
+    private double lookupEnergy(Engine engine, String precision, String what) {
         Precisions.Lookup l = Precisions.lookup(engine.energyFj(), precision, engine.multiplyFraction());
         if (l == null) {
             throw new BadInputException(device.id() + ": engine '" + engine.id() + "' lists no " + what
