@@ -22,9 +22,21 @@ public final class Analyzer {
      * @throws BadInputException when the file, the graph or a binding is unusable
      */
     public static ModelWorkload analyze(Path file, Map<String, Long> dims) {
+        return analyze(file, dims, AnalysisOptions.DEFAULTS);
+    }
+
+    /**
+     * Analyses the model in {@code file} with {@code options}.
+     *
+     * @param dims values for symbolic dims (e.g. {@code batch=1})
+     * @throws BadInputException when the file, the graph or a binding is unusable, or, with
+     *                           {@code failOnUnmodelled}, when some node has no rule
+     */
+    public static ModelWorkload analyze(Path file, Map<String, Long> dims, AnalysisOptions options) {
         OnnxModel model = OnnxReader.read(file);
         Graph graph = GraphBuilder.build(model, dims);
         ShapeInference.run(graph);
-        return WorkloadCounter.count(graph);
+        ModelWorkload w = WorkloadCounter.count(graph);
+        return options.failOnUnmodelled() ? w.requireComplete() : w;
     }
 }

@@ -1,5 +1,6 @@
 package dev.erg.cli;
 
+import dev.erg.AnalysisOptions;
 import dev.erg.Analyzer;
 import dev.erg.BadInputException;
 import dev.erg.report.AnalysisJson;
@@ -35,6 +36,10 @@ final class AnalyzeCommand implements Callable<Integer> {
             description = "How many nodes the table lists, most MACs first (default: ${DEFAULT-VALUE}).")
     int top;
 
+    @Option(names = "--fail-on-unmodelled",
+            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
+    boolean failOnUnmodelled;
+
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
@@ -44,7 +49,7 @@ final class AnalyzeCommand implements Callable<Integer> {
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
-        ModelWorkload w = Analyzer.analyze(model, bound);
+        ModelWorkload w = Analyzer.analyze(model, bound, new AnalysisOptions(failOnUnmodelled));
         PrintWriter out = spec.commandLine().getOut();
         out.print(AnalysisTable.render(w, top));
         if (json != null) {

@@ -376,7 +376,9 @@ public final class Estimator {
         final long bytes;
         int start = -1;
         int end = -1;
-        final List<Integer> uses = new ArrayList<>();
+        /** The steps that read or write the buffer, ascending and distinct (the schedule is swept in order). */
+        int[] uses = new int[2];
+        int useCount;
         boolean inDram;
         int evictedUntil = -1;
 
@@ -385,25 +387,26 @@ public final class Estimator {
             this.bytes = bytes;
         }
 
-        /** The first use after {@code step}, or -1: a binary search over the ascending use steps. */
-        int nextUseAfter(int step) {
-            int lo = 0;
-            int hi = uses.size();
-            while (lo < hi) {
-                int mid = (lo + hi) >>> 1;
-                if (uses.get(mid) <= step) {
-                    lo = mid + 1;
-                } else {
-                    hi = mid;
-                }
+        /** Records a use at {@code step}, which is never before the last one recorded. */
+        void use(int step) {
+            if (useCount > 0 && uses[useCount - 1] == step) {
+                return;
             }
-            return lo < uses.size() ? uses.get(lo) : -1;
+            if (useCount == uses.length) {
+                uses = java.util.Arrays.copyOf(uses, 2 * useCount);
+            }
+            uses[useCount++] = step;
         }
 
-        /** True when the buffer is read or written at {@code step}. */
         boolean usedAt(int step) {
-            int j = nextUseAfter(step - 1);
-            return j == step;
+            return java.util.Arrays.binarySearch(uses, 0, useCount, step) >= 0;
+        }
+
+        /** The first use after {@code step}, or -1: a binary search of the sorted uses. */
+        int nextUseAfter(int step) {
+            int i = java.util.Arrays.binarySearch(uses, 0, useCount, step);
+            int next = i >= 0 ? i + 1 : -i - 1;
+            return next < useCount ? uses[next] : -1;
         }
     }
 
@@ -438,9 +441,7 @@ public final class Estimator {
                     b.start = i;
                 }
                 b.end = Math.max(b.end, i);
-                if (b.uses.isEmpty() || b.uses.get(b.uses.size() - 1) != i) {
-                    b.uses.add(i);
-                }
+                b.use(i);
             }
             for (Value v : node.outputs()) {
                 if (v == null || v.isConstant()) {
@@ -456,7 +457,7 @@ public final class Estimator {
                 Buffer b = new Buffer(v, actBytes(v));
                 b.start = i;
                 b.end = i;
-                b.uses.add(i);
+                b.use(i);
                 bufOf.put(v, b);
                 buffers.add(b);
             }
@@ -670,13 +671,17 @@ public final class Estimator {
         e.energy = new Energy(compute, regJ, sramJ, dramJ, leak);
     }
 
-    private final Map<String, Double> energyCache = new HashMap<>();
+    /** Energies already looked up: every node of one precision on one engine asks the same question. */
+    private record EnergyKey(Engine engine, String precision, String what) {
+    }
+
+    private final Map<EnergyKey, Double> energyCache = new HashMap<>();
 
     private double energy(Engine engine, String precision, String what) {
-        String key = engine.id() + '\u0000' + precision + '\u0000' + what;
-        Double cached = energyCache.get(key);
-        if (cached != null) {
-            return cached;
+        EnergyKey key = new EnergyKey(engine, precision, what);
+        Double known = energyCache.get(key);
+        if (known != null) {
+            return known;
         }
         double fj = lookupEnergy(engine, precision, what);
         energyCache.put(key, fj);

@@ -15,9 +15,11 @@ public final class Graph {
     private final List<Value> outputs;
     private final List<TensorDef> initializers;
     private final Map<String, Long> boundDims;
+    private final Map<String, Value> outerScope;
 
     Graph(OnnxModel model, List<Node> nodes, Map<String, Value> values, List<Value> inputs, List<Value> outputs,
-          List<TensorDef> initializers, Map<String, Long> boundDims) {
+          List<TensorDef> initializers, Map<String, Long> boundDims, Map<String, Value> outerScope) {
+        this.outerScope = outerScope;
         this.model = model;
         this.nodes = Collections.unmodifiableList(nodes);
         this.values = Collections.unmodifiableMap(values);
@@ -55,6 +57,14 @@ public final class Graph {
 
     public List<TensorDef> initializers() {
         return initializers;
+    }
+
+    /**
+     * The values a subgraph (an If branch, a Loop or Scan body) can read from its enclosing scopes;
+     * empty for the main graph.
+     */
+    public Map<String, Value> outerScope() {
+        return Collections.unmodifiableMap(outerScope);
     }
 
     /** The symbolic dims bound by the user that this graph uses. */

@@ -8,7 +8,6 @@ import dev.erg.onnx.OnnxModel;
 import dev.erg.onnx.TensorDef;
 import dev.erg.onnx.ValueDef;
 import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.HashSet;
 import java.util.LinkedHashMap;
 import java.util.List;
@@ -54,16 +53,11 @@ public final class GraphBuilder {
 
     private Graph build(OnnxModel model, GraphDef g, Map<String, Value> outer) {
         boolean isMain = outer.isEmpty() && g == model.graph();
-        Map<String, Value> values = new LinkedHashMap<>();
+        Map<String, Value> values = new LinkedHashMap<>(
+                (int) ((g.initializers().size() + g.inputs().size() + 2L * g.nodes().size()) / 0.75f) + 16);
         List<TensorDef> inits = g.initializers();
         for (TensorDef t : inits) {
-            Value v = new Value(t.name());
-            v.setStored(t);
-            v.setType(t.type(), t.dims());
-            v.setData(t.values());
-            if (values.put(t.name(), v) != null) {
-                throw bad("initializer '" + t.name() + "' is defined twice");
-            }
+            addInitializer(values, t);
         }
         List<Value> inputs = new ArrayList<>();
         for (ValueDef in : g.inputs()) {
@@ -81,132 +75,33 @@ public final class GraphBuilder {
             values.put(in.name(), v);
             inputs.add(v);
         }
-        // Outputs of nodes.
+        // Outputs of nodes. Each value remembers the file index of its producer while the graph is built.
         List<NodeDef> defs = g.nodes();
-        Map<String, Integer> producerOf = new HashMap<>();
-        for (int i = 0; i < defs.size(); i++) {
-            NodeDef d = defs.get(i);
-            for (String out : d.outputs()) {
-                if (out.isEmpty()) {
-                    continue;
-                }
-                if (values.containsKey(out) || producerOf.containsKey(out)) {
-                    throw bad("value '" + out + "' is produced twice (again by node " + label(d, i) + ")");
-                }
-                producerOf.put(out, i);
-                values.put(out, new Value(out));
-            }
+        int count = defs.size();
+        for (int i = 0; i < count; i++) {
+            addOutputs(values, defs.get(i), i);
         }
-        // Link inputs; collect dependencies.
-        List<Node> nodes = new ArrayList<>(defs.size());
-        int[] indegree = new int[defs.size()];
-        List<List<Integer>> dependents = new ArrayList<>(defs.size());
-        for (int i = 0; i < defs.size(); i++) {
-            dependents.add(new ArrayList<>(2));
+        // Link inputs; collect dependencies (deduplicated with a stamp per producer). The per-node work is
+        // a method of its own, so that the JIT compiles it once rather than the whole loop on the stack.
+        Linker link = new Linker(values, outer, count);
+        List<Node> nodes = new ArrayList<>(count);
+        for (int i = 0; i < count; i++) {
+            nodes.add(link.node(defs.get(i), i));
         }
-        for (int i = 0; i < defs.size(); i++) {
-            NodeDef d = defs.get(i);
-            List<Value> ins = new ArrayList<>(d.inputs().size());
-            Set<Integer> deps = new HashSet<>();
-            for (String name : d.inputs()) {
-                if (name.isEmpty()) {
-                    ins.add(null);
-                    continue;
-                }
-                Value v = values.get(name);
-                if (v == null) {
-                    v = outer.get(name);
-                }
-                if (v == null) {
-                    throw bad("node " + label(d, i) + " reads '" + name
-                            + "', which no node, graph input or initializer provides");
-                }
-                ins.add(v);
-                Integer p = producerOf.get(name);
-                if (p != null) {
-                    deps.add(p);
-                }
+        int[][] depsOf = link.depsOf;
+        boolean fileOrder = link.fileOrder;
+        List<Node> order;
+        if (fileOrder) {
+            // Every node reads only what earlier nodes made: the file order is a topological order.
+            order = nodes;
+            for (int i = 0; i < count; i++) {
+                nodes.get(i).setIndex(i);
             }
-            List<Value> implicit = new ArrayList<>();
-            Set<String> free = new java.util.LinkedHashSet<>();
-            for (AttributeDef a : d.attributes().values()) {
-                if (a.g() != null) {
-                    freeNames(a.g(), free);
-                }
-                for (GraphDef sg : a.graphs()) {
-                    freeNames(sg, free);
-                }
-            }
-            for (String name : free) {
-                Value v = values.get(name);
-                if (v == null) {
-                    v = outer.get(name);
-                }
-                if (v == null) {
-                    throw bad("a subgraph of node " + label(d, i) + " reads '" + name
-                            + "', which nothing in scope provides");
-                }
-                implicit.add(v);
-                Integer p = producerOf.get(name);
-                if (p != null) {
-                    deps.add(p);
-                }
-            }
-            deps.remove(i);
-            for (String name : d.inputs()) {
-                Integer p = producerOf.get(name);
-                if (p != null && p == i) {
-                    throw bad("graph has a cycle: node " + label(d, i) + " reads its own output '" + name + "'");
-                }
-            }
-            indegree[i] = deps.size();
-            for (int p : deps) {
-                dependents.get(p).add(i);
-            }
-            List<Value> outs = new ArrayList<>(d.outputs().size());
-            for (String out : d.outputs()) {
-                outs.add(out.isEmpty() ? null : values.get(out));
-            }
-            Long opset = opsets.get(d.domain());
-            Node n = new Node(d, i, ins, outs, opset == null ? 0 : opset, implicit);
-            nodes.add(n);
+        } else {
+            order = kahn(nodes, depsOf);
         }
-        // Kahn's algorithm, smallest file index first: file order whenever it is already valid.
-        PriorityQueue<Integer> ready = new PriorityQueue<>();
-        for (int i = 0; i < indegree.length; i++) {
-            if (indegree[i] == 0) {
-                ready.add(i);
-            }
-        }
-        List<Node> order = new ArrayList<>(nodes.size());
-        while (!ready.isEmpty()) {
-            int i = ready.poll();
-            Node n = nodes.get(i);
-            n.setIndex(order.size());
-            order.add(n);
-            for (int j : dependents.get(i)) {
-                if (--indegree[j] == 0) {
-                    ready.add(j);
-                }
-            }
-        }
-        if (order.size() < nodes.size()) {
-            throw bad("graph has a cycle through node " + nodeOnCycle(nodes, indegree, producerOf));
-        }
-        for (Node n : order) {
-            for (Value v : n.inputs()) {
-                if (v != null) {
-                    v.consumers().add(n);
-                }
-            }
-            for (Value v : n.implicitInputs()) {
-                v.consumers().add(n);
-            }
-            for (Value v : n.outputs()) {
-                if (v != null) {
-                    v.setProducer(n);
-                }
-            }
+        for (int i = 0; i < order.size(); i++) {
+            connect(order.get(i));
         }
         List<Value> outputs = new ArrayList<>();
         for (ValueDef o : g.outputs()) {
@@ -220,7 +115,192 @@ public final class GraphBuilder {
             v.markGraphOutput();
             outputs.add(v);
         }
-        return new Graph(model, order, values, inputs, outputs, inits, used);
+        return new Graph(model, order, values, inputs, outputs, inits, used, outer);
+    }
+
+    // The loops over every node call small methods, so that the JIT compiles those rather than the
+    // whole of build() on the stack.
+
+    private void addInitializer(Map<String, Value> values, TensorDef t) {
+        Value v = new Value(t.name());
+        v.setStored(t);
+        v.setType(t.type(), t.dims());
+        v.setData(t.values());
+        if (values.put(t.name(), v) != null) {
+            throw bad("initializer '" + t.name() + "' is defined twice");
+        }
+    }
+
+    /** Makes the values node {@code i} produces; each remembers its producer's file index. */
+    private void addOutputs(Map<String, Value> values, NodeDef d, int i) {
+        List<String> outs = d.outputs();
+        for (int k = 0; k < outs.size(); k++) {
+            String out = outs.get(k);
+            if (out.isEmpty()) {
+                continue;
+            }
+            Value v = new Value(out);
+            v.fileProducer = i;
+            if (values.putIfAbsent(out, v) != null) {
+                throw bad("value '" + out + "' is produced twice (again by node " + label(d, i) + ")");
+            }
+        }
+    }
+
+    /** Links {@code n} to the values it reads (as a consumer, in topological order) and makes. */
+    private static void connect(Node n) {
+        List<Value> ins = n.inputs();
+        for (int k = 0; k < ins.size(); k++) {
+            Value v = ins.get(k);
+            if (v != null) {
+                v.consumers().add(n);
+            }
+        }
+        for (Value v : n.implicitInputs()) {
+            v.consumers().add(n);
+        }
+        List<Value> outs = n.outputs();
+        for (int k = 0; k < outs.size(); k++) {
+            Value v = outs.get(k);
+            if (v != null) {
+                v.setProducer(n);
+            }
+        }
+    }
+
+    /** Links one node at a time: its input values, the values its subgraphs read, its dependencies. */
+    private final class Linker {
+        final Map<String, Value> values;
+        final Map<String, Value> outer;
+        final int[][] depsOf;
+        final int[] stamp;
+        int[] buf = new int[16];
+        int nd;
+        boolean fileOrder = true;
+
+        Linker(Map<String, Value> values, Map<String, Value> outer, int count) {
+            this.values = values;
+            this.outer = outer;
+            this.depsOf = new int[count][];
+            this.stamp = new int[count];
+            java.util.Arrays.fill(stamp, -1);
+        }
+
+        /** The value named {@code name} in scope, recording a dependency of node {@code i} on its producer. */
+        Value read(String name, int i, NodeDef d, boolean implicit) {
+            Value v = values.get(name);
+            int p = v == null ? -1 : v.fileProducer;
+            if (v == null) {
+                v = outer.get(name);
+            }
+            if (v == null) {
+                throw bad(implicit
+                        ? "a subgraph of node " + label(d, i) + " reads '" + name + "', which nothing in scope provides"
+                        : "node " + label(d, i) + " reads '" + name + "', which no node, graph input or initializer provides");
+            }
+            if (p == i) {
+                if (implicit) {
+                    return v;
+                }
+                throw bad("graph has a cycle: node " + label(d, i) + " reads its own output '" + name + "'");
+            }
+            if (p >= 0 && stamp[p] != i) {
+                stamp[p] = i;
+                if (nd == buf.length) {
+                    buf = java.util.Arrays.copyOf(buf, 2 * nd);
+                }
+                buf[nd++] = p;
+                fileOrder &= p < i;
+            }
+            return v;
+        }
+
+        Node node(NodeDef d, int i) {
+            nd = 0;
+            List<Value> ins = new ArrayList<>(d.inputs().size());
+            for (String name : d.inputs()) {
+                ins.add(name.isEmpty() ? null : read(name, i, d, false));
+            }
+            List<Value> implicit = List.of();
+            if (hasSubgraph(d)) {
+                implicit = new ArrayList<>();
+                Set<String> free = new java.util.LinkedHashSet<>();
+                for (AttributeDef a : d.attributes().values()) {
+                    if (a.g() != null) {
+                        freeNames(a.g(), free);
+                    }
+                    for (GraphDef sg : a.graphs()) {
+                        freeNames(sg, free);
+                    }
+                }
+                for (String name : free) {
+                    implicit.add(read(name, i, d, true));
+                }
+            }
+            depsOf[i] = nd == 0 ? NO_DEPS : java.util.Arrays.copyOf(buf, nd);
+            List<Value> outs = new ArrayList<>(d.outputs().size());
+            for (String out : d.outputs()) {
+                outs.add(out.isEmpty() ? null : values.get(out));
+            }
+            Long opset = opsets.get(d.domain());
+            return new Node(d, i, ins, outs, opset == null ? 0 : opset, implicit);
+        }
+    }
+
+    private static final int[] NO_DEPS = new int[0];
+
+    /** Kahn's algorithm, smallest file index first: file order wherever it is already valid. */
+    private List<Node> kahn(List<Node> nodes, int[][] depsOf) {
+        int count = nodes.size();
+        int[] indegree = new int[count];
+        int[] dependentCount = new int[count];
+        for (int i = 0; i < count; i++) {
+            indegree[i] = depsOf[i].length;
+            for (int p : depsOf[i]) {
+                dependentCount[p]++;
+            }
+        }
+        int[][] dependents = new int[count][];
+        for (int i = 0; i < count; i++) {
+            dependents[i] = new int[dependentCount[i]];
+            dependentCount[i] = 0;
+        }
+        for (int i = 0; i < count; i++) {
+            for (int p : depsOf[i]) {
+                dependents[p][dependentCount[p]++] = i;
+            }
+        }
+        PriorityQueue<Integer> ready = new PriorityQueue<>();
+        for (int i = 0; i < count; i++) {
+            if (indegree[i] == 0) {
+                ready.add(i);
+            }
+        }
+        List<Node> order = new ArrayList<>(count);
+        while (!ready.isEmpty()) {
+            int i = ready.poll();
+            Node n = nodes.get(i);
+            n.setIndex(order.size());
+            order.add(n);
+            for (int j : dependents[i]) {
+                if (--indegree[j] == 0) {
+                    ready.add(j);
+                }
+            }
+        }
+        if (order.size() < count) {
+            throw bad("graph has a cycle through node " + nodeOnCycle(nodes, indegree, depsOf));
+        }
+        return order;
+    }
+
+    private static boolean hasSubgraph(NodeDef d) {
+        for (AttributeDef a : d.attributes().values()) {
+            if (a.g() != null || !a.graphs().isEmpty()) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /** Names a subgraph reads from its enclosing scopes. */
@@ -263,7 +343,7 @@ public final class GraphBuilder {
         }
     }
 
-    private static String nodeOnCycle(List<Node> nodes, int[] indegree, Map<String, Integer> producerOf) {
+    private static String nodeOnCycle(List<Node> nodes, int[] indegree, int[][] depsOf) {
         int start = -1;
         for (int i = 0; i < indegree.length; i++) {
             if (indegree[i] > 0) {
@@ -276,9 +356,8 @@ public final class GraphBuilder {
         int cur = start;
         while (seen.add(cur)) {
             int next = -1;
-            for (String in : nodes.get(cur).def().inputs()) {
-                Integer p = producerOf.get(in);
-                if (p != null && indegree[p] > 0) {
+            for (int p : depsOf[cur]) {
+                if (indegree[p] > 0) {
                     next = p;
                     break;
                 }

@@ -30,6 +30,8 @@ public final class Value {
     private final List<Node> consumers = new ArrayList<>(2);
     private boolean graphInput;
     private boolean graphOutput;
+    /** While a graph is built: the file index of the node that produces this value, or -1. */
+    int fileProducer = -1;
 
     public Value(String name) {
         this.name = name;

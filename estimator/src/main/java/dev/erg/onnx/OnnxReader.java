@@ -36,7 +36,29 @@ public final class OnnxReader {
     private final long fileSize;
     private CodedInputStream in;
     private int graphDepth;
-    private String where = "model";
+    private Where where = new Where(null, "model", -1);
+
+    private static final float[] NO_FLOATS = new float[0];
+    private static final long[] NO_LONGS = new long[0];
+
+    /** Where the reader is, for messages: built into text only when a message needs it. */
+    private static final class Where {
+        final Where parent;
+        final String text;
+        final int index;
+
+        Where(Where parent, String text, int index) {
+            this.parent = parent;
+            this.text = text;
+            this.index = index;
+        }
+
+        @Override
+        public String toString() {
+            String p = parent == null ? "" : parent.toString();
+            return index < 0 ? p + text : p + text + index;
+        }
+    }
 
     private OnnxReader(Path file, long fileSize) {
         this.file = file;
@@ -211,9 +233,9 @@ public final class OnnxReader {
                         throw bad("the model holds two graphs");
                     }
                     int old = enter("graph");
-                    where = "graph";
+                    where = new Where(null, "graph", -1);
                     graph = readGraph();
-                    where = "model";
+                    where = new Where(null, "model", -1);
                     leave(old);
                     break;
                 case 8:
@@ -273,7 +295,7 @@ public final class OnnxReader {
         List<ValueDef> outputs = new ArrayList<>();
         List<TensorDef> inits = new ArrayList<>();
         List<ValueDef> info = new ArrayList<>();
-        String outer = where;
+        Where outer = where;
         while (!in.isAtEnd()) {
             int tag = in.readTag();
             int old;
@@ -281,7 +303,7 @@ public final class OnnxReader {
                 case 1:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "node");
                     old = enter("node");
-                    where = outer + " node #" + nodes.size();
+                    where = new Where(outer, " node #", nodes.size());
                     nodes.add(readNode());
                     where = outer;
                     leave(old);
@@ -292,7 +314,7 @@ public final class OnnxReader {
                 case 5:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "initializer");
                     old = enter("initializer");
-                    where = outer + " initializer #" + inits.size();
+                    where = new Where(outer, " initializer #", inits.size());
                     inits.add(readTensor("initializer"));
                     where = outer;
                     leave(old);
@@ -300,7 +322,7 @@ public final class OnnxReader {
                 case 15:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "sparse_initializer");
                     old = enter("sparse_initializer");
-                    where = outer + " sparse initializer #" + inits.size();
+                    where = new Where(outer, " sparse initializer #", inits.size());
                     inits.add(readSparseTensor());
                     where = outer;
                     leave(old);
@@ -326,8 +348,7 @@ public final class OnnxReader {
         String domain = "";
         List<String> inputs = new ArrayList<>();
         List<String> outputs = new ArrayList<>();
-        Map<String, AttributeDef> attrs = new LinkedHashMap<>();
-        List<AttributeDef> pending = new ArrayList<>();
+        List<AttributeDef> pending = new ArrayList<>(4);
         while (!in.isAtEnd()) {
             int tag = in.readTag();
             switch (field(tag)) {
@@ -363,12 +384,19 @@ public final class OnnxReader {
         if (op.isEmpty()) {
             throw bad("node '" + label + "' has no op_type");
         }
-        for (AttributeDef a : pending) {
-            if (attrs.put(a.name(), a) != null) {
-                throw bad("node '" + label + "' (" + op + ") has attribute '" + a.name() + "' twice");
+        // Few attributes per node: duplicates by a pairwise check, then one immutable map.
+        @SuppressWarnings("unchecked")
+        Map.Entry<String, AttributeDef>[] entries = new Map.Entry[pending.size()];
+        for (int k = 0; k < entries.length; k++) {
+            AttributeDef a = pending.get(k);
+            for (int j = 0; j < k; j++) {
+                if (entries[j].getKey().equals(a.name())) {
+                    throw bad("node '" + label + "' (" + op + ") has attribute '" + a.name() + "' twice");
+                }
             }
+            entries[k] = Map.entry(a.name(), a);
         }
-        return new NodeDef(name, op, domain, inputs, outputs, attrs);
+        return new NodeDef(name, intern(op), intern(domain), inputs, outputs, Map.ofEntries(entries));
     }
 
     private AttributeDef readAttribute() throws IOException {
@@ -379,14 +407,15 @@ public final class OnnxReader {
         String s = null;
         TensorDef t = null;
         GraphDef g = null;
-        FloatList floats = new FloatList();
-        LongList ints = new LongList();
-        List<String> strings = new ArrayList<>();
-        List<TensorDef> tensors = new ArrayList<>();
-        List<GraphDef> graphs = new ArrayList<>();
+        // Most attributes hold one int, float or string: the lists are made only when a field needs them.
+        FloatList floats = null;
+        LongList ints = null;
+        List<String> strings = List.of();
+        List<TensorDef> tensors = List.of();
+        List<GraphDef> graphs = List.of();
         boolean refAttr = false;
         AttributeDef.Kind seen = AttributeDef.Kind.UNDEFINED;
-        String outer = where;
+        Where outer = where;
         while (!in.isAtEnd()) {
             int tag = in.readTag();
             int old;
@@ -424,13 +453,16 @@ public final class OnnxReader {
                 case 6:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "attribute g");
                     old = enter("attribute g");
-                    where = outer + " subgraph '" + name + "'";
+                    where = new Where(outer, " subgraph '" + name + "'", -1);
                     g = readGraph();
                     where = outer;
                     leave(old);
                     seen = AttributeDef.Kind.GRAPH;
                     break;
                 case 7:
+                    if (floats == null) {
+                        floats = new FloatList();
+                    }
                     if (wire(tag) == WireFormat.WIRETYPE_LENGTH_DELIMITED) {
                         old = enter("attribute floats");
                         while (!in.isAtEnd()) {
@@ -444,16 +476,25 @@ public final class OnnxReader {
                     seen = AttributeDef.Kind.FLOATS;
                     break;
                 case 8:
+                    if (ints == null) {
+                        ints = new LongList();
+                    }
                     int64s(tag, "attribute ints", ints);
                     seen = AttributeDef.Kind.INTS;
                     break;
                 case 9:
+                    if (strings.isEmpty()) {
+                        strings = new ArrayList<>();
+                    }
                     strings.add(string(tag, "attribute strings"));
                     seen = AttributeDef.Kind.STRINGS;
                     break;
                 case 10:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "attribute tensors");
                     old = enter("attribute tensors");
+                    if (tensors.isEmpty()) {
+                        tensors = new ArrayList<>();
+                    }
                     tensors.add(readTensor("attribute '" + name + "'"));
                     leave(old);
                     seen = AttributeDef.Kind.TENSORS;
@@ -461,7 +502,10 @@ public final class OnnxReader {
                 case 11:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "attribute graphs");
                     old = enter("attribute graphs");
-                    where = outer + " subgraph '" + name + "'";
+                    where = new Where(outer, " subgraph '" + name + "'", -1);
+                    if (graphs.isEmpty()) {
+                        graphs = new ArrayList<>();
+                    }
                     graphs.add(readGraph());
                     where = outer;
                     leave(old);
@@ -488,7 +532,8 @@ public final class OnnxReader {
         if (refAttr && kind == AttributeDef.Kind.UNDEFINED) {
             kind = AttributeDef.Kind.UNDEFINED;
         }
-        return new AttributeDef(name, kind, f, i, s, t, g, floats.toArray(), ints.toArray(), strings, tensors, graphs);
+        return new AttributeDef(name, kind, f, i, s, t, g, floats == null ? NO_FLOATS : floats.toArray(),
+                ints == null ? NO_LONGS : ints.toArray(), strings, tensors, graphs);
     }
 
     private ValueDef readValueInfo() throws IOException {
@@ -804,7 +849,7 @@ public final class OnnxReader {
             throw bad(what + " has an external data location with a NUL character");
         }
         String norm = loc.replace('\\', '/');
-        if (norm.startsWith("/") || norm.matches("^[A-Za-z]:.*") || norm.startsWith("~")) {
+        if (norm.startsWith("/") || (norm.length() >= 2 && norm.charAt(1) == ':' && isAsciiLetter(norm.charAt(0))) || norm.startsWith("~")) {
             throw bad(what + " has external data at the absolute location '" + loc
                     + "'; external data must be a relative path inside the model's folder");
         }
@@ -836,6 +881,18 @@ public final class OnnxReader {
             }
         }
         return loc;
+    }
+
+    /** Operator types and domains repeat over the nodes: one String each. */
+    private final Map<String, String> interned = new java.util.HashMap<>();
+
+    private String intern(String s) {
+        String prev = interned.putIfAbsent(s, s);
+        return prev != null ? prev : s;
+    }
+
+    private static boolean isAsciiLetter(char ch) {
+        return (ch >= 'A' && ch <= 'Z') || (ch >= 'a' && ch <= 'z');
     }
 
     private static TensorValues decodeRaw(ElemType type, long[] dims, byte[] raw) {

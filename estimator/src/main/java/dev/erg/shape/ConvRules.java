@@ -13,6 +13,19 @@ final class ConvRules {
         t.add("ConvInteger", c -> conv(c, 0, 1, ElemType.INT32));
         t.add("QLinearConv", c -> conv(c, 0, 3, c.type(7)));
         t.add("ConvTranspose", ConvRules::convTranspose);
+        // DeformConv (opset 19): Conv's output shape (explicit pads, no auto_pad); offset [N, 2*og*prod(k), out...].
+        t.add("DeformConv", c -> {
+            conv(c, 0, 1, c.type(0));
+            long[] y = c.node().output(0) == null ? null : c.node().output(0).dims();
+            long[] off = c.dims(2);
+            if (y != null && (off.length != y.length || off[0] != y[0]
+                    || !Arrays.equals(Arrays.copyOfRange(off, 2, off.length), Arrays.copyOfRange(y, 2, y.length)))) {
+                throw c.fail("has offset " + Arrays.toString(off) + " that does not match its output " + Arrays.toString(y));
+            }
+        });
+        t.add("GridSample", ConvRules::gridSample);
+        t.add("AffineGrid", ConvRules::affineGrid);
+        t.add("Col2Im", ConvRules::col2im);
     }
 
     /** Spatial output size of a sliding window, as the standard defines it for Conv and the pools. */
@@ -75,6 +88,8 @@ final class ConvRules {
         long[] kernel = c.attrInts("kernel_shape");
         if (kernel == null) {
             kernel = Arrays.copyOfRange(w, 2, w.length);
+        } else if (!Arrays.equals(kernel, Arrays.copyOfRange(w, 2, w.length))) {
+            throw c.fail("has kernel_shape " + Arrays.toString(kernel) + " but its weight " + Arrays.toString(w));
         }
         long[] strides = attrOr(c, "strides", sp, 1);
         long[] dil = attrOr(c, "dilations", sp, 1);
@@ -90,6 +105,66 @@ final class ConvRules {
             out[2 + i] = windowOut(c, autoPad, x[2 + i], kernel[i], strides[i], dil[i], pads[i], pads[i + sp], false);
         }
         c.out(0, outType, out);
+    }
+
+    /**
+     * GridSample (opset 16: 4-D; opset 20: N-D): X [N, C, D1..Dr], grid [N, D1_out..Dr_out, r] ->
+     * [N, C, D1_out..Dr_out].
+     */
+    static void gridSample(InferContext c) {
+        long[] x = c.dims(0);
+        long[] g = c.dims(1);
+        int r = g.length - 2;
+        if (x.length < 3 || g.length != x.length || g[g.length - 1] != r || g[0] != x[0]) {
+            throw c.fail("needs X [N, C, spatial...] and grid [N, spatial_out..., r] of one batch (got "
+                    + Arrays.toString(x) + " and " + Arrays.toString(g) + ")");
+        }
+        if (c.opset() < 20 && x.length != 4) {
+            throw c.fail("takes a 4-D input before opset 20, got " + Arrays.toString(x));
+        }
+        long[] out = new long[x.length];
+        out[0] = x[0];
+        out[1] = x[1];
+        System.arraycopy(g, 1, out, 2, r);
+        c.out(0, c.type(0), out);
+    }
+
+    /** AffineGrid (opset 20): theta [N, 2, 3] or [N, 3, 4], size [N, C, H, W] or [N, C, D, H, W] -> [N, (D,) H, W, r]. */
+    static void affineGrid(InferContext c) {
+        long[] theta = c.dims(0);
+        long[] size = c.ints(1, "size");
+        int r = size.length - 2;
+        if ((r != 2 && r != 3) || theta.length != 3 || theta[1] != r || theta[2] != r + 1 || theta[0] != size[0]) {
+            throw c.fail("needs theta [N, r, r+1] and a size of rank r + 2 (r = 2 or 3), got " + Arrays.toString(theta)
+                    + " and " + Arrays.toString(size));
+        }
+        long[] out = new long[r + 2];
+        out[0] = size[0];
+        System.arraycopy(size, 2, out, 1, r);
+        out[r + 1] = r;
+        c.out(0, c.type(0), out);
+    }
+
+    /** Col2Im (opset 18): [N, C * prod(block_shape), L], image_shape, block_shape -> [N, C, image_shape...]. */
+    static void col2im(InferContext c) {
+        long[] x = c.dims(0);
+        long[] image = c.ints(1, "image_shape");
+        long[] block = c.ints(2, "block_shape");
+        if (x.length != 3 || image.length != block.length) {
+            throw c.fail("needs a 3-D input and image_shape and block_shape of one length");
+        }
+        long blocks = 1;
+        for (long b : block) {
+            blocks = Math.multiplyExact(blocks, b);
+        }
+        if (blocks <= 0 || x[1] % blocks != 0) {
+            throw c.fail("has " + x[1] + " input channels, not a multiple of the block size " + blocks);
+        }
+        long[] out = new long[2 + image.length];
+        out[0] = x[0];
+        out[1] = x[1] / blocks;
+        System.arraycopy(image, 0, out, 2, image.length);
+        c.out(0, c.type(0), out);
     }
 
     static void convTranspose(InferContext c) {

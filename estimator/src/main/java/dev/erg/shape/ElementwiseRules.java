@@ -47,7 +47,8 @@ final class ElementwiseRules {
             if (c.data(0) != null) {
                 c.outData(0, c.data(0));
             }
-            c.out(1, ElemType.BOOL, c.dims(0));
+            // The mask is boolean from Dropout-10; Dropout-7 gave it the input's type.
+            c.out(1, c.opset() < 10 ? c.type(0) : ElemType.BOOL, c.dims(0));
         });
         t.add("Cast", c -> {
             long to = c.attrInt("to", -1);

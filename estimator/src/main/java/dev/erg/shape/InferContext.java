@@ -14,6 +14,7 @@ public final class InferContext {
     private final Graph graph;
     private final Node node;
     private final ShapeInference engine;
+    private String unmodelledReason;
 
     InferContext(Graph graph, Node node, ShapeInference engine) {
         this.graph = graph;
@@ -162,6 +163,20 @@ public final class InferContext {
         if (v != null) {
             v.setData(data);
         }
+    }
+
+    /**
+     * Marks the node as not modelled, with the reason, instead of failing: a well-formed node whose
+     * cost erg cannot work out (a Loop with a trip count known only at run time, a branch with an
+     * unmodelled operator). The outputs the rule did set keep their shapes, so that nodes downstream
+     * can still be shaped; the node itself is reported as unmodelled and priced at nothing.
+     */
+    public void unmodelled(String reason) {
+        unmodelledReason = reason;
+    }
+
+    String unmodelledReason() {
+        return unmodelledReason;
     }
 
     /** Records an assumption that the report should show beside this node. */

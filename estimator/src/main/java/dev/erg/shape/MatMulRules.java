@@ -3,9 +3,7 @@ package dev.erg.shape;
 import dev.erg.onnx.ElemType;
 import java.util.ArrayList;
 import java.util.Arrays;
-import java.util.LinkedHashMap;
 import java.util.List;
-import java.util.Map;
 
 /** Matrix products: Gemm, MatMul (numpy semantics), their integer and quantized forms, Einsum. */
 final class MatMulRules {
@@ -17,7 +15,7 @@ final class MatMulRules {
         t.add("MatMul", c -> c.out(0, c.type(0), matmul(c, c.dims(0), c.dims(1))));
         t.add("MatMulInteger", c -> c.out(0, ElemType.INT32, matmul(c, c.dims(0), c.dims(1))));
         t.add("QLinearMatMul", c -> c.out(0, c.type(7), matmul(c, c.dims(0), c.dims(3))));
-        t.add("Einsum", c -> c.out(0, c.type(0), Einsum.parse(c).outDims));
+        t.add("Einsum", c -> c.out(0, c.type(0), einsum(c).outDims()));
     }
 
     static void gemm(InferContext c) {
@@ -35,6 +33,18 @@ final class MatMulRules {
         if (ka != kb) {
             throw c.fail("multiplies " + Arrays.toString(a) + (ta ? "^T" : "") + " by " + Arrays.toString(b)
                     + (tb ? "^T" : "") + ": inner dims " + ka + " and " + kb + " differ");
+        }
+        if (c.has(2)) {
+            // C broadcasts unidirectionally to [M, N].
+            long[] cd = c.dims(2);
+            boolean ok = cd.length <= 2;
+            for (int i = 0; i < cd.length && ok; i++) {
+                long want = i == cd.length - 1 ? n : m;
+                ok = cd[i] == 1 || cd[i] == want;
+            }
+            if (!ok) {
+                throw c.fail("has C " + Arrays.toString(cd) + " that does not broadcast to [" + m + ", " + n + "]");
+            }
         }
         c.out(0, c.type(0), new long[] {m, n});
     }
@@ -66,89 +76,12 @@ final class MatMulRules {
         return out.stream().mapToLong(Long::longValue).toArray();
     }
 
-    /** A parsed Einsum equation with the size of every index. */
-    static final class Einsum {
-        final long[] outDims;
-        /** Product of the sizes of every distinct index: the multiply count of the contraction. */
-        final long fullProduct;
-
-        private Einsum(long[] outDims, long fullProduct) {
-            this.outDims = outDims;
-            this.fullProduct = fullProduct;
+    /** The parsed equation of an Einsum node, against its inputs' shapes. */
+    static EinsumEquation einsum(InferContext c) {
+        List<long[]> dims = new ArrayList<>();
+        for (int i = 0; i < c.inputCount(); i++) {
+            dims.add(c.dims(i));
         }
-
-        static Einsum parse(InferContext c) {
-            String eq = c.attrString("equation", "").replace(" ", "");
-            if (eq.isEmpty()) {
-                throw c.fail("has no equation");
-            }
-            String lhs = eq.contains("->") ? eq.substring(0, eq.indexOf("->")) : eq;
-            String rhs = eq.contains("->") ? eq.substring(eq.indexOf("->") + 2) : null;
-            String[] terms = lhs.split(",", -1);
-            if (terms.length != c.inputCount()) {
-                throw c.fail("has an equation with " + terms.length + " operands for " + c.inputCount() + " inputs");
-            }
-            Map<Character, Long> size = new LinkedHashMap<>();
-            Map<Character, Integer> count = new LinkedHashMap<>();
-            long[] ellipsis = new long[0];
-            for (int i = 0; i < terms.length; i++) {
-                long[] d = c.dims(i);
-                String term = terms[i];
-                int dots = term.indexOf("...");
-                int letters = term.replace("...", "").length();
-                int ellRank = dots >= 0 ? d.length - letters : 0;
-                if (ellRank < 0 || (dots < 0 && letters != d.length)) {
-                    throw c.fail("has equation term '" + term + "' for an input of rank " + d.length);
-                }
-                int axis = 0;
-                for (int p = 0; p < term.length(); p++) {
-                    if (p == dots) {
-                        long[] e = Arrays.copyOfRange(d, axis, axis + ellRank);
-                        ellipsis = Shapes.broadcast(c, ellipsis, e);
-                        axis += ellRank;
-                        p += 2;
-                        continue;
-                    }
-                    char ch = term.charAt(p);
-                    long dim = d[axis++];
-                    Long prev = size.get(ch);
-                    if (prev != null && prev != dim && prev != 1 && dim != 1) {
-                        throw c.fail("gives index '" + ch + "' the sizes " + prev + " and " + dim);
-                    }
-                    size.put(ch, prev == null || prev == 1 ? dim : prev);
-                    count.merge(ch, 1, Integer::sum);
-                }
-            }
-            List<Long> out = new ArrayList<>();
-            if (rhs == null) {
-                for (long e : ellipsis) {
-                    out.add(e);
-                }
-                size.keySet().stream().filter(ch -> count.get(ch) == 1).sorted().forEach(ch -> out.add(size.get(ch)));
-            } else {
-                for (int p = 0; p < rhs.length(); p++) {
-                    if (rhs.startsWith("...", p)) {
-                        for (long e : ellipsis) {
-                            out.add(e);
-                        }
-                        p += 2;
-                        continue;
-                    }
-                    Long s = size.get(rhs.charAt(p));
-                    if (s == null) {
-                        throw c.fail("has output index '" + rhs.charAt(p) + "' that no operand has");
-                    }
-                    out.add(s);
-                }
-            }
-            long full = 1;
-            for (long e : ellipsis) {
-                full = Math.multiplyExact(full, e);
-            }
-            for (long s : size.values()) {
-                full = Math.multiplyExact(full, s);
-            }
-            return new Einsum(out.stream().mapToLong(Long::longValue).toArray(), full);
-        }
+        return EinsumEquation.parse(c.attrString("equation", ""), dims, c::fail);
     }
 }

@@ -3,7 +3,8 @@ package dev.erg.shape;
 import java.util.Collections;
 import java.util.Map;
 import java.util.Set;
-import java.util.TreeMap;
+import java.util.HashMap;
+import java.util.TreeSet;
 
 /**
  * The one table of shape rules, keyed by operator type of the default ONNX domain. Each operator
@@ -11,7 +12,7 @@ import java.util.TreeMap;
  * one line here (plus its test).
  */
 public final class RuleTable {
-    private final Map<String, ShapeRule> rules = new TreeMap<>();
+    private final Map<String, ShapeRule> rules = new HashMap<>();
 
     public void add(String opType, ShapeRule rule) {
         if (rules.put(opType, rule) != null) {
@@ -24,7 +25,7 @@ public final class RuleTable {
     }
 
     public Set<String> operators() {
-        return Collections.unmodifiableSet(rules.keySet());
+        return Collections.unmodifiableSet(new TreeSet<>(rules.keySet()));
     }
 
     private static final RuleTable STANDARD = build();
@@ -46,6 +47,8 @@ public final class RuleTable {
         RecurrentRules.register(t);
         QuantRules.register(t);
         ControlRules.register(t);
+        DataDependentRules.register(t);
+        GeneratorRules.register(t);
         return t;
     }
 }

@@ -6,6 +6,7 @@ import dev.erg.graph.Node;
 import dev.erg.graph.Value;
 import dev.erg.onnx.TensorDef;
 import java.util.LinkedHashSet;
+import java.util.List;
 import java.util.Set;
 
 /**
@@ -69,6 +70,11 @@ public final class ShapeInference {
             throw c.fail("cannot be shaped (" + e.getClass().getSimpleName()
                     + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
         }
+        if (c.unmodelledReason() != null) {
+            n.setStatus(Node.Status.UNMODELLED);
+            c.note(c.unmodelledReason());
+            return;
+        }
         for (int i = 0; i < n.outputs().size(); i++) {
             Value v = n.output(i);
             if (v != null && !v.hasShape()) {
@@ -84,7 +90,7 @@ public final class ShapeInference {
             return;
         }
         boolean constant;
-        Set<TensorDef> sources = new LinkedHashSet<>();
+        Set<TensorDef> sources = Set.of();
         if (SHAPE_READERS.contains(n.opType())) {
             constant = true; // static shapes: the value is known whatever the input holds
         } else if (n.opType().equals("Constant")) {
@@ -92,22 +98,29 @@ public final class ShapeInference {
         } else {
             constant = true;
             int present = 0;
-            for (Value v : n.inputs()) {
+            List<Value> ins = n.inputs();
+            for (int i = 0; i < ins.size(); i++) {
+                Value v = ins.get(i);
                 if (v == null) {
                     continue;
                 }
                 present++;
                 if (!v.isConstant()) {
-                    constant = false;
-                    break;
+                    return; // most nodes: a runtime input, nothing to collect
                 }
-                sources.addAll(v.sources());
             }
             for (Value v : n.implicitInputs()) {
                 if (!v.isConstant()) {
-                    constant = false;
-                    break;
+                    return;
                 }
+            }
+            sources = new LinkedHashSet<>();
+            for (Value v : ins) {
+                if (v != null) {
+                    sources.addAll(v.sources());
+                }
+            }
+            for (Value v : n.implicitInputs()) {
                 sources.addAll(v.sources());
             }
             if (present == 0 && n.implicitInputs().isEmpty() && !n.opType().equals("ConstantOfShape")

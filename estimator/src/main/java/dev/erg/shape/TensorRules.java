@@ -31,7 +31,14 @@ final class TensorRules {
         t.add("Split", TensorRules::split);
         t.add("Slice", TensorRules::slice);
         t.add("Gather", TensorRules::gather);
-        t.add("GatherElements", c -> c.out(0, c.type(0), c.dims(1)));
+        t.add("GatherElements", c -> {
+            if (c.rank(0) != c.rank(1) || c.rank(0) == 0) {
+                throw c.fail("needs data and indices of the same rank >= 1 (got " + Arrays.toString(c.dims(0))
+                        + " and " + Arrays.toString(c.dims(1)) + ")");
+            }
+            c.axis(c.attrInt("axis", 0), c.rank(0));
+            c.out(0, c.type(0), c.dims(1));
+        });
         t.add("GatherND", TensorRules::gatherNd);
         t.add("ScatterND", c -> c.out(0, c.type(0), c.dims(0)));
         t.add("ScatterElements", c -> c.out(0, c.type(0), c.dims(0)));
@@ -73,9 +80,14 @@ final class TensorRules {
             c.out(1, ElemType.INT64, d);
         });
         t.add("NonZero", TensorRules::nonZero);
+        t.add("ReverseSequence", c -> c.out(0, c.type(0), c.dims(0)));
+        t.add("CenterCropPad", TensorRules::centerCropPad);
         t.add("CumSum", c -> c.out(0, c.type(0), c.dims(0)));
         t.add("Trilu", c -> c.out(0, c.type(0), c.dims(0)));
         t.add("EyeLike", c -> {
+            if (c.rank(0) != 2) {
+                throw c.fail("needs a 2-D input, got " + Arrays.toString(c.dims(0)));
+            }
             long dt = c.attrInt("dtype", -1);
             c.out(0, dt < 0 ? c.type(0) : ElemType.ofCode(dt), c.dims(0));
         });
@@ -255,7 +267,7 @@ final class TensorRules {
         long[] d = c.dims(0);
         long[] axes = axesOf(c, 1);
         boolean[] drop = new boolean[d.length];
-        if (axes == null) {
+        if (axes == null || axes.length == 0) {
             for (int i = 0; i < d.length; i++) {
                 drop[i] = d[i] == 1;
             }
@@ -417,6 +429,9 @@ final class TensorRules {
         long[] sizes;
         if (c.opset() < 13) {
             sizes = c.attrInts("split");
+            if (sizes == null && c.opset() < 2 && c.has(1)) {
+                sizes = c.ints(1, "split sizes"); // Split-1 also took the sizes as an input
+            }
         } else {
             sizes = c.has(1) ? c.ints(1, "split sizes") : null;
         }
@@ -427,12 +442,18 @@ final class TensorRules {
             }
             sizes = new long[(int) n];
             if (c.hasAttr("num_outputs")) {
-                long chunk = Shapes.ceilDiv(d[axis], n);
-                long left = d[axis];
-                for (int i = 0; i < n; i++) {
-                    sizes[i] = Math.min(chunk, left);
-                    left -= sizes[i];
+                if (n != outs) {
+                    throw c.fail("has num_outputs " + n + " but " + outs + " outputs");
                 }
+                // Split-18: chunks of ceil(d / n), the last one smaller when d does not divide.
+                long chunk = Shapes.ceilDiv(d[axis], n);
+                long last = d[axis] - chunk * (n - 1);
+                if (last < 0) {
+                    throw c.fail("cannot split an axis of size " + d[axis] + " into " + n + " chunks of "
+                            + chunk + " (the last chunk would be " + last + ")");
+                }
+                Arrays.fill(sizes, chunk);
+                sizes[(int) n - 1] = last;
             } else {
                 if (d[axis] % n != 0) {
                     throw c.fail("splits an axis of size " + d[axis] + " into " + n + " equal parts");
@@ -700,7 +721,8 @@ final class TensorRules {
     static void pad(InferContext c) {
         long[] d = c.dims(0);
         int r = d.length;
-        long[] pads = c.opset() < 11 ? c.attrInts("pads") : c.ints(1, "pads");
+        // Pad-1 named the attribute 'paddings'; Pad-2 'pads'; from Pad-11 the pads are an input.
+        long[] pads = c.opset() < 2 ? c.attrInts("paddings") : c.opset() < 11 ? c.attrInts("pads") : c.ints(1, "pads");
         if (pads == null) {
             throw c.fail("has no pads");
         }
@@ -815,6 +837,33 @@ final class TensorRules {
         long[] out = new long[d.length];
         for (int i = 0; i < d.length; i++) {
             out[i] = (long) Math.floor(d[i] * scales[i]);
+        }
+        c.out(0, c.type(0), out);
+    }
+
+    /** CenterCropPad (opset 18): the axes (attribute, default all) take the sizes of the shape input. */
+    static void centerCropPad(InferContext c) {
+        long[] d = c.dims(0);
+        long[] shape = c.ints(1, "shape");
+        long[] axesAttr = c.attrInts("axes");
+        int[] axes;
+        if (axesAttr == null) {
+            axes = new int[d.length];
+            for (int i = 0; i < d.length; i++) {
+                axes[i] = i;
+            }
+        } else {
+            axes = Shapes.axes(c, axesAttr, d.length);
+        }
+        if (shape.length != axes.length) {
+            throw c.fail("has " + shape.length + " sizes for " + axes.length + " axes");
+        }
+        long[] out = d.clone();
+        for (int i = 0; i < axes.length; i++) {
+            if (shape[i] < 0) {
+                throw c.fail("crops or pads axis " + axes[i] + " to the negative size " + shape[i]);
+            }
+            out[axes[i]] = shape[i];
         }
         c.out(0, c.type(0), out);
     }

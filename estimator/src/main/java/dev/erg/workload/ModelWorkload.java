@@ -1,5 +1,6 @@
 package dev.erg.workload;
 
+import dev.erg.BadInputException;
 import dev.erg.graph.Graph;
 import java.util.List;
 import java.util.Map;
@@ -70,5 +71,34 @@ public final class ModelWorkload {
     /** True when every node was shaped and priced by a rule. */
     public boolean complete() {
         return unmodelled.isEmpty() && unresolved.isEmpty();
+    }
+
+    /**
+     * Returns this workload when it is complete; otherwise fails with one line that names the file
+     * and lists the operators without a rule and those left unresolved, with their node counts.
+     *
+     * @throws BadInputException when some node was not modelled
+     */
+    public ModelWorkload requireComplete() {
+        if (complete()) {
+            return this;
+        }
+        StringBuilder b = new StringBuilder(graph.fileLabel()).append(": the analysis is incomplete:");
+        if (!unmodelled.isEmpty()) {
+            b.append(" no rule for ").append(list(unmodelled()));
+        }
+        if (!unresolved.isEmpty()) {
+            b.append(unmodelled.isEmpty() ? " " : "; ").append("unresolved downstream: ").append(list(unresolved()));
+        }
+        throw new BadInputException(b.toString());
+    }
+
+    private static String list(Map<String, Integer> counts) {
+        StringBuilder b = new StringBuilder();
+        for (Map.Entry<String, Integer> e : counts.entrySet()) {
+            b.append(b.length() == 0 ? "" : ", ").append(e.getKey()).append(" (").append(e.getValue())
+                    .append(e.getValue() == 1 ? " node)" : " nodes)");
+        }
+        return b.toString();
     }
 }

@@ -50,6 +50,9 @@ public final class WorkloadCounter {
             }
             if (w.kind() == Kind.MAC) {
                 WorkloadRules.Entry e = rules.get(n.opType());
+                if (e == null) {
+                    continue;
+                }
                 for (int i = 1; i < n.inputCount(); i++) {
                     Value v = n.input(i);
                     if (v != null && v.isConstant() && !e.params.contains(i)) {
@@ -72,11 +75,28 @@ public final class WorkloadCounter {
                     weights = Math.addExact(weights, t.bytes());
                 }
             }
+            for (TensorDef t : subgraphInitializers(g)) {
+                if (counted.add(t)) {
+                    weights = Math.addExact(weights, t.bytes());
+                }
+            }
             peak = peakActivation(g);
         } catch (ArithmeticException e) {
             throw overflow(g, "the model's weight or activation bytes overflow 64 bits");
         }
         return new ModelWorkload(g, works, macs, vector, weights, peak, unmodelled, unresolved);
+    }
+
+    /** The initializers of every subgraph that runs as part of a node of {@code g}, nested ones too. */
+    private static List<TensorDef> subgraphInitializers(Graph g) {
+        List<TensorDef> out = new ArrayList<>();
+        for (Node n : g.nodes()) {
+            for (Graph sub : n.subgraphs()) {
+                out.addAll(sub.initializers());
+                out.addAll(subgraphInitializers(sub));
+            }
+        }
+        return out;
     }
 
     private static BadInputException overflow(Graph g, String what) {
@@ -97,8 +117,16 @@ public final class WorkloadCounter {
         } else {
             b = new NodeWork.Builder(n, e.kind);
             e.rule.count(n, b);
-            addSubgraphs(n, b);
+            addSubgraphs(n, b, unmodelled, unresolved);
             bytes(n, b, e);
+        }
+        if (b.kind == Kind.UNMODELLED || b.kind == Kind.UNRESOLVED) {
+            // What a subgraph could not model is listed with the rest, never hidden inside the node.
+            for (Graph sub : n.subgraphs()) {
+                ModelWorkload w = countGraph(sub);
+                w.unmodelled().forEach((k, v) -> unmodelled.merge(k, v, Integer::sum));
+                w.unresolved().forEach((k, v) -> unresolved.merge(k, v, Integer::sum));
+            }
         }
         b.note = n.note();
         b.outputShapes = shapes(n);
@@ -108,10 +136,16 @@ public final class WorkloadCounter {
         return new NodeWork(b);
     }
 
-    /** A taken If branch or a Loop body: its nodes' arithmetic, times the trip count, joins the node's. */
-    private void addSubgraphs(Node n, NodeWork.Builder b) {
+    /**
+     * A taken If branch, a Loop or Scan body: its nodes' arithmetic, times the trip count, joins the
+     * node's; what the subgraph could not model joins the model's lists.
+     */
+    private void addSubgraphs(Node n, NodeWork.Builder b, Map<String, Integer> unmodelled,
+                              Map<String, Integer> unresolved) {
         for (Graph sub : n.subgraphs()) {
             ModelWorkload w = countGraph(sub);
+            w.unmodelled().forEach((k, v) -> unmodelled.merge(k, v, Integer::sum));
+            w.unresolved().forEach((k, v) -> unresolved.merge(k, v, Integer::sum));
             b.macs = Math.addExact(b.macs, Math.multiplyExact(w.macs(), n.repeat()));
             b.vectorOps = Math.addExact(b.vectorOps, Math.multiplyExact(w.vectorOps(), n.repeat()));
             if (w.macs() > 0 && b.kind != Kind.MAC) {
@@ -133,7 +167,7 @@ public final class WorkloadCounter {
         if (b.kind == Kind.VIEW) {
             return;
         }
-        Set<TensorDef> seen = java.util.Collections.newSetFromMap(new IdentityHashMap<>());
+        List<TensorDef> seen = null; // a node reads few stored tensors: a list with identity checks
         for (int i = 0; i < n.inputCount(); i++) {
             Value v = n.input(i);
             if (v == null || e.params.contains(i)) {
@@ -143,8 +177,12 @@ public final class WorkloadCounter {
                 if (v.sources().isEmpty()) {
                     b.weightBytes += v.bytes();
                 } else {
+                    if (seen == null) {
+                        seen = new ArrayList<>(4);
+                    }
                     for (TensorDef t : v.sources()) {
-                        if (seen.add(t)) {
+                        if (!containsIdentical(seen, t)) {
+                            seen.add(t);
                             b.weightBytes += t.bytes();
                         }
                     }
@@ -158,6 +196,15 @@ public final class WorkloadCounter {
                 b.outputBytes += v.bytes();
             }
         }
+    }
+
+    private static boolean containsIdentical(List<TensorDef> list, TensorDef t) {
+        for (TensorDef x : list) {
+            if (x == t) {
+                return true;
+            }
+        }
+        return false;
     }
 
     /** The element type a value really carries on the device: through DequantizeLinear to its integers. */
@@ -239,60 +286,71 @@ public final class WorkloadCounter {
     static long peakActivation(Graph g) {
         List<Node> nodes = g.nodes();
         int steps = nodes.size();
-        Map<Value, Value> bufferOf = new IdentityHashMap<>();
-        Map<Value, int[]> life = new IdentityHashMap<>(); // buffer -> {start, end}
+        // value -> its buffer {start, end, bytes}; a view maps to its input's buffer (the same array).
+        Map<Value, long[]> bufferOf = new IdentityHashMap<>(2 * (g.inputs().size() + steps));
+        List<long[]> buffers = new ArrayList<>(g.inputs().size() + steps);
         for (Value v : g.inputs()) {
-            bufferOf.put(v, v);
-            life.put(v, new int[] {0, 0});
+            long[] b = {0, 0, v.bytes()};
+            bufferOf.put(v, b);
+            buffers.add(b);
         }
-        for (Node n : nodes) {
-            boolean view = !n.isFolded() && n.status() == Node.Status.SHAPED
-                    && WorkloadRules.standard().get(n.opType()) != null
-                    && WorkloadRules.standard().get(n.opType()).kind == Kind.VIEW;
-            for (int o = 0; o < n.outputs().size(); o++) {
-                Value v = n.output(o);
-                if (v == null || v.isConstant()) {
-                    continue;
-                }
-                Value in = n.input(0);
-                if (view && o == 0 && in != null && bufferOf.containsKey(in)) {
-                    bufferOf.put(v, bufferOf.get(in));
-                } else {
-                    bufferOf.put(v, v);
-                    life.put(v, new int[] {n.index(), n.index()});
-                }
-            }
-        }
-        for (Node n : nodes) {
-            List<Value> reads = new ArrayList<>(n.inputs());
-            reads.addAll(n.implicitInputs());
-            for (Value v : reads) {
-                Value buf = v == null ? null : bufferOf.get(v);
-                if (buf != null) {
-                    int[] l = life.get(buf);
-                    l[1] = Math.max(l[1], n.index());
-                }
-            }
+        WorkloadRules table = WorkloadRules.standard();
+        for (int i = 0; i < steps; i++) {
+            liveRange(nodes.get(i), table, bufferOf, buffers);
         }
         for (Value v : g.outputs()) {
-            Value buf = bufferOf.get(v);
-            if (buf != null) {
-                life.get(buf)[1] = steps;
+            long[] b = bufferOf.get(v);
+            if (b != null) {
+                b[1] = steps;
             }
         }
         long[] delta = new long[steps + 2];
-        for (Map.Entry<Value, int[]> en : life.entrySet()) {
-            long bytes = en.getKey().bytes();
-            delta[en.getValue()[0]] += bytes;
-            delta[en.getValue()[1] + 1] -= bytes;
+        for (long[] b : buffers) {
+            delta[(int) b[0]] += b[2];
+            delta[(int) b[1] + 1] -= b[2];
         }
         long live = 0;
         long peak = 0;
         for (int i = 0; i <= steps; i++) {
-            live += delta[i];
+            live = Math.addExact(live, delta[i]);
             peak = Math.max(peak, live);
         }
         return peak;
+    }
+
+    /** Extends the buffers {@code n} reads to its step and opens those it makes (a view shares its input's). */
+    private static void liveRange(Node n, WorkloadRules table, Map<Value, long[]> bufferOf, List<long[]> buffers) {
+        int step = n.index();
+        List<Value> ins = n.inputs();
+        for (int k = 0; k < ins.size(); k++) {
+            Value v = ins.get(k);
+            long[] b = v == null ? null : bufferOf.get(v);
+            if (b != null && b[1] < step) {
+                b[1] = step;
+            }
+        }
+        for (Value v : n.implicitInputs()) {
+            long[] b = bufferOf.get(v);
+            if (b != null && b[1] < step) {
+                b[1] = step;
+            }
+        }
+        WorkloadRules.Entry e = table.get(n.opType());
+        boolean view = e != null && e.kind == Kind.VIEW && !n.isFolded() && n.status() == Node.Status.SHAPED;
+        for (int o = 0; o < n.outputs().size(); o++) {
+            Value v = n.output(o);
+            if (v == null || v.isConstant()) {
+                continue;
+            }
+            long[] in = view && o == 0 && n.input(0) != null ? bufferOf.get(n.input(0)) : null;
+            if (in != null) {
+                bufferOf.put(v, in);
+            } else {
+                long[] b = {step, step, v.bytes()};
+                bufferOf.put(v, b);
+                buffers.add(b);
+            }
+        }
     }
 
     static Map<String, Integer> counts(Map<String, Integer> m) {

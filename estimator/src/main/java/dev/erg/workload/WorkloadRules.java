@@ -2,10 +2,12 @@ package dev.erg.workload;
 
 import dev.erg.graph.Node;
 import dev.erg.graph.Value;
+import dev.erg.shape.EinsumEquation;
+import dev.erg.shape.Shapes;
 import java.util.Collections;
 import java.util.Map;
 import java.util.Set;
-import java.util.TreeMap;
+import java.util.HashMap;
 
 /**
  * The table of workload rules: per operator, its kind, how its arithmetic is counted and which
@@ -28,7 +30,7 @@ public final class WorkloadRules {
         }
     }
 
-    private final Map<String, Entry> table = new TreeMap<>();
+    private final Map<String, Entry> table = new HashMap<>();
 
     private static final WorkloadRules STANDARD = build();
 
@@ -53,7 +55,7 @@ public final class WorkloadRules {
     }
 
     public Set<String> operators() {
-        return Collections.unmodifiableSet(table.keySet());
+        return Collections.unmodifiableSet(new java.util.TreeSet<>(table.keySet()));
     }
 
     private void add(String op, Kind kind, WorkRule rule, Integer... params) {
@@ -87,7 +89,7 @@ public final class WorkloadRules {
         for (String op : new String[] {"Reshape", "Flatten", "Squeeze", "Unsqueeze", "Identity"}) {
             t.add(op, Kind.VIEW, none, 1);
         }
-        t.add("Dropout", Kind.VIEW, none, 1, 2);
+        t.add("Dropout", Kind.VIEW, WorkloadRules::dropout, 1, 2);
         // Shape readers and generators that are always folded when shapes are static.
         t.add("Constant", Kind.FOLDED, none);
         t.add("Shape", Kind.FOLDED, none);
@@ -111,6 +113,28 @@ public final class WorkloadRules {
         t.add("Tile", Kind.MOVE, none, 1);
         t.add("Expand", Kind.MOVE, none, 1);
         t.add("OneHot", Kind.MOVE, none, 1, 2);
+        t.add("ReverseSequence", Kind.MOVE, none, 1);
+        t.add("CenterCropPad", Kind.MOVE, none, 1);
+        t.add("MaxUnpool", Kind.MOVE, none, 1, 2);
+        // Data-dependent outputs: sorting and suppression work, on the upper-bound sizes of the shape rules.
+        t.add("NonMaxSuppression", Kind.VECTOR, WorkloadRules::nonMaxSuppression, 2, 3, 4);
+        t.add("Unique", Kind.VECTOR, (n, w) -> w.vectorOps(sortCompares(inElems(n, 0))));
+        // Generators: random draws and window functions.
+        t.add("RandomUniform", Kind.VECTOR, perOutput(2));
+        t.add("RandomUniformLike", Kind.VECTOR, perOutput(2));
+        t.add("Bernoulli", Kind.VECTOR, perOutput(2));
+        t.add("RandomNormal", Kind.VECTOR, perOutput(3 * TRANSCENDENTAL + 3));
+        t.add("RandomNormalLike", Kind.VECTOR, perOutput(3 * TRANSCENDENTAL + 3));
+        t.add("Multinomial", Kind.VECTOR, (n, w) -> w.vectorOps(Math.multiplyExact(outElems(n),
+                n.input(0).dims()[1] + 1)));
+        t.add("HannWindow", Kind.VECTOR, perOutput(TRANSCENDENTAL + 2), 0);
+        t.add("HammingWindow", Kind.VECTOR, perOutput(TRANSCENDENTAL + 2), 0);
+        t.add("BlackmanWindow", Kind.VECTOR, perOutput(2 * TRANSCENDENTAL + 4), 0);
+        // Sampling and image-column operators.
+        t.add("GridSample", Kind.VECTOR, WorkloadRules::gridSample);
+        t.add("AffineGrid", Kind.VECTOR, (n, w) -> w.vectorOps(Math.multiplyExact(outElems(n),
+                2L * (n.output(0).rank() - 2) + 1)), 1);
+        t.add("Col2Im", Kind.VECTOR, perInput(1), 1, 2);
         t.add("NonZero", Kind.VECTOR, perInput(1));
         t.add("Resize", Kind.VECTOR, WorkloadRules::resize, 1, 2, 3);
         t.add("Upsample", Kind.VECTOR, WorkloadRules::resize, 1);
@@ -146,7 +170,8 @@ public final class WorkloadRules {
         t.add("Hardmax", Kind.VECTOR, perOutput(2));
         t.add("LpNormalization", Kind.VECTOR, perOutput(3));
         // Normalisations: inference-mode BatchNormalization is a scale and a shift per element.
-        t.add("BatchNormalization", Kind.VECTOR, perOutput(2));
+        t.add("BatchNormalization", Kind.VECTOR, (n, w) -> w.vectorOps(Math.multiplyExact(outElems(n),
+                n.opset() >= 14 && n.attrInt("training_mode", 0) == 1 ? 6 : 2)));
         t.add("LayerNormalization", Kind.VECTOR, perOutput(8));
         t.add("InstanceNormalization", Kind.VECTOR, perOutput(8));
         t.add("GroupNormalization", Kind.VECTOR, perOutput(8));
@@ -156,6 +181,8 @@ public final class WorkloadRules {
         t.add("MaxPool", Kind.VECTOR, WorkloadRules::pool);
         t.add("AveragePool", Kind.VECTOR, WorkloadRules::pool);
         t.add("LpPool", Kind.VECTOR, WorkloadRules::pool);
+        t.add("MaxRoiPool", Kind.VECTOR, WorkloadRules::maxRoiPool);
+        t.add("RoiAlign", Kind.VECTOR, WorkloadRules::roiAlign, 2);
         t.add("GlobalAveragePool", Kind.VECTOR, perInput(1));
         t.add("GlobalMaxPool", Kind.VECTOR, perInput(1));
         t.add("GlobalLpPool", Kind.VECTOR, perInput(2));
@@ -177,16 +204,19 @@ public final class WorkloadRules {
         t.add("ConvInteger", Kind.MAC, (n, w) -> conv(n, w, 0, 1, -1), 2, 3);
         t.add("QLinearConv", Kind.MAC, (n, w) -> conv(n, w, 0, 3, 8), 1, 2, 4, 5, 6, 7);
         t.add("ConvTranspose", Kind.MAC, WorkloadRules::convTranspose);
+        t.add("DeformConv", Kind.MAC, WorkloadRules::deformConv);
         t.add("Gemm", Kind.MAC, WorkloadRules::gemm);
         t.add("MatMul", Kind.MAC, (n, w) -> matmul(n, w, 0, 1));
         t.add("MatMulInteger", Kind.MAC, (n, w) -> matmul(n, w, 0, 1), 2, 3);
         t.add("QLinearMatMul", Kind.MAC, (n, w) -> matmul(n, w, 0, 3), 1, 2, 4, 5, 6, 7);
         t.add("Einsum", Kind.MAC, WorkloadRules::einsum);
-        t.add("LSTM", Kind.MAC, (n, w) -> recurrent(n, w, 4, 36), 4, 5, 6);
+        t.add("LSTM", Kind.MAC, (n, w) -> recurrent(n, w, 4, n.input(7) != null ? 36 + 6 : 36), 4, 5, 6);
         t.add("GRU", Kind.MAC, (n, w) -> recurrent(n, w, 3, 25), 4, 5);
         t.add("RNN", Kind.MAC, (n, w) -> recurrent(n, w, 1, 7), 4, 5);
         // Control flow: the cost of the taken branch is added by the counter.
         t.add("If", Kind.VECTOR, none, 0);
+        t.add("Loop", Kind.VECTOR, none, 0, 1);
+        t.add("Scan", Kind.VECTOR, none);
         return t;
     }
 
@@ -310,45 +340,111 @@ public final class WorkloadRules {
     }
 
     static void einsum(Node n, NodeWork.Builder w) {
-        String eq = n.attrString("equation", "").replace(" ", "");
-        long full = 1;
-        java.util.Map<Character, Long> size = new java.util.HashMap<>();
-        String lhs = eq.contains("->") ? eq.substring(0, eq.indexOf("->")) : eq;
-        String[] terms = lhs.split(",", -1);
-        long ellipsis = 1;
-        for (int i = 0; i < terms.length; i++) {
-            long[] d = n.input(i).dims();
-            String term = terms[i];
-            int dots = term.indexOf("...");
-            int letters = term.replace("...", "").length();
-            int ellRank = dots >= 0 ? d.length - letters : 0;
-            int axis = 0;
-            long e = 1;
-            for (int p = 0; p < term.length(); p++) {
-                if (p == dots) {
-                    for (int q = 0; q < ellRank; q++) {
-                        e = Math.multiplyExact(e, d[axis++]);
-                    }
-                    p += 2;
-                    continue;
-                }
-                long dim = d[axis++];
-                size.merge(term.charAt(p), dim, Math::max);
-            }
-            ellipsis = Math.max(ellipsis, e);
+        java.util.List<long[]> dims = new java.util.ArrayList<>();
+        for (int i = 0; i < n.inputCount(); i++) {
+            dims.add(n.input(i).dims());
         }
-        full = ellipsis;
-        for (long s : size.values()) {
-            full = Math.multiplyExact(full, s);
-        }
-        if (terms.length == 1) {
-            w.kind(Kind.VECTOR).vectorOps(full);
+        EinsumEquation.Cost cost = EinsumEquation.parse(n.attrString("equation", ""), dims,
+                IllegalStateException::new).cost();
+        if (n.inputCount() == 1) {
+            w.kind(Kind.VECTOR).vectorOps(cost.vectorOps);
             return;
         }
-        long out = outElems(n);
-        // MACs: one per point of the full index space; as a product, out x (full / out) x 1.
-        long k = out == 0 ? 0 : full / out;
-        w.gemm(out, k, 1, 1);
+        if (cost.groups > 0) {
+            w.gemm(cost.m, cost.k, cost.n, cost.groups);
+        } else {
+            w.macs(cost.macs); // three or more operands: pairwise products, no single matrix-product view
+        }
+        w.vectorOps(cost.vectorOps);
+    }
+
+    static void dropout(Node n, NodeWork.Builder w) {
+        Value mode = n.input(2);
+        if (n.opset() >= 12 && mode != null && mode.data() != null && mode.data().size() > 0
+                && mode.data().longAt(0) != 0) {
+            // Training mode: a random draw, a compare and a scale per element.
+            w.kind(Kind.VECTOR).vectorOps(Math.multiplyExact(outElems(n), 3));
+        }
+    }
+
+    /** Comparisons of a comparison sort of {@code n} items: n * ceil(log2 n). */
+    static long sortCompares(long n) {
+        if (n < 2) {
+            return n;
+        }
+        return Math.multiplyExact(n, 64 - Long.numberOfLeadingZeros(n - 1));
+    }
+
+    /**
+     * NonMaxSuppression: per batch and class, sort the N scores (N * ceil(log2 N) compares) and test each
+     * selected box against the N boxes (IOU_OPS per test), with the selected count of the shape rule.
+     */
+    static void nonMaxSuppression(Node n, NodeWork.Builder w) {
+        long[] boxes = n.input(0).dims();
+        long[] scores = n.input(1).dims();
+        long pairs = Math.multiplyExact(scores[0], scores[1]);
+        long nb = boxes[1];
+        long selected = pairs == 0 ? 0 : outElems(n) / 3 / pairs;
+        long perPair = Math.addExact(sortCompares(nb), Math.multiplyExact(Math.multiplyExact(selected, nb), IOU_OPS));
+        w.vectorOps(Math.multiplyExact(pairs, perPair));
+    }
+
+    /** Ops of one intersection-over-union test of two boxes against a threshold. */
+    static final long IOU_OPS = 12;
+
+    /**
+     * MaxRoiPool: every ROI's bins together cover at most the whole feature map, so each ROI costs at most
+     * one compare per input element of one image: rois x C x H x W (upper bound).
+     */
+    static void maxRoiPool(Node n, NodeWork.Builder w) {
+        long[] x = n.input(0).dims();
+        long rois = n.input(1).dims()[0];
+        w.vectorOps(Math.multiplyExact(rois, Shapes.product(x, 1, x.length)));
+    }
+
+    /**
+     * RoiAlign: per output element, sampling_ratio^2 bilinear samples (4 multiplies and 3 adds each) and
+     * one accumulate per sample; an adaptive sampling_ratio (0) is taken as 2.
+     */
+    static void roiAlign(Node n, NodeWork.Builder w) {
+        long sr = n.attrInt("sampling_ratio", 0);
+        long samples = sr > 0 ? sr * sr : 4;
+        w.vectorOps(Math.multiplyExact(outElems(n), Math.multiplyExact(samples, 8)));
+    }
+
+    /**
+     * GridSample: per output element one blend of taps inputs (2 * taps - 1 ops), taps = 2^r (linear)
+     * or 4^r (cubic) over the r spatial axes; nearest is a gather (a move).
+     */
+    static void gridSample(Node n, NodeWork.Builder w) {
+        String mode = n.attrString("mode", n.opset() >= 20 ? "linear" : "bilinear");
+        if (mode.equals("nearest")) {
+            w.kind(Kind.MOVE);
+            return;
+        }
+        int r = n.output(0).rank() - 2;
+        long taps = 1;
+        for (int i = 0; i < r; i++) {
+            taps *= mode.contains("cubic") ? 4 : 2;
+        }
+        w.vectorOps(Math.multiplyExact(outElems(n), 2 * taps - 1));
+    }
+
+    /**
+     * DeformConv: Conv's MACs over the sampled values; each sampled value (N x C x output positions x
+     * kernel points) is a bilinear sample (7 ops), times the mask (1 op) when there is one; a bias adds
+     * one op per output element.
+     */
+    static void deformConv(Node n, NodeWork.Builder w) {
+        conv(n, w, 0, 1, 3);
+        long bias = n.input(3) != null ? outElems(n) : 0;
+        long[] x = n.input(0).dims();
+        long[] wd = n.input(1).dims();
+        long[] y = n.output(0).dims();
+        long samples = Math.multiplyExact(Math.multiplyExact(x[0], x[1]),
+                Math.multiplyExact(Shapes.product(y, 2, y.length), Shapes.product(wd, 2, wd.length)));
+        long per = n.input(4) != null ? 8 : 7;
+        w.vectorOps(Math.addExact(bias, Math.multiplyExact(samples, per)));
     }
 
     static void recurrent(Node n, NodeWork.Builder w, int gates, int vectorPerHidden) {
