@@ -5,7 +5,7 @@ set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 cd "$root"
 jar=cli/target/erg.jar
-work=bench/work
+work=bench/scratch
 mkdir -p "$work/classes"
 if [ ! -f "$jar" ] || [ -n "$(find estimator/src/main cli/src/main -newer "$jar" -type f | head -1)" ]; then
   mvn -q -DskipTests package -pl cli -am

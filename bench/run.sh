@@ -7,20 +7,20 @@
 #
 # What it does (see docs/benchmark.md):
 #   1. builds cli/target/erg.jar with Maven unless a jar newer than every source is already there;
-#   2. writes two models of one structure with OnnxWriter into bench/work/: big.onnx (512 MiB of
+#   2. writes two models of one structure with OnnxWriter into bench/scratch/: big.onnx (512 MiB of
 #      embedded fp32 weights) and small.onnx (the same graph with small layers);
 #   3. times, as whole processes with JVM start: 'java -jar cli/target/erg.jar analyze' on each model
 #      and a plain Java program that reads every byte of big.onnx (bench/src/PlainRead.java), each
 #      RUNS times, interleaved, with the files in the page cache (warm) and with them evicted before
 #      every run (cold); peak RSS comes from GNU time;
 #   4. prints the medians and the ratios erg(big)/erg(small) and erg(big)/plain-read(big).
-# bench/ is not a Maven module: 'mvn test' never runs it. Scratch files go to bench/work/ (gitignored).
+# bench/ is not a Maven module: 'mvn test' never runs it. Scratch files go to bench/scratch/ (gitignored).
 set -euo pipefail
 
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 cd "$root"
 runs=${RUNS:-5}
-work=bench/work
+work=bench/scratch
 jar=cli/target/erg.jar
 mkdir -p "$work/classes"
 

@@ -9,7 +9,7 @@
 # What it does (see docs/benchmark.md, "Scale"):
 #   1. builds cli/target/erg.jar with Maven unless a jar newer than every source is already there;
 #   2. writes synthetic transformer-like models of each node count with OnnxWriter
-#      (bench/src/ScaleModels.java) into bench/work/, and a variant with one If per block;
+#      (bench/src/ScaleModels.java) into bench/scratch/, and a variant with one If per block;
 #   3. times, as whole processes with JVM start, 'java -jar cli/target/erg.jar analyze' on each model
 #      and on its If variant (analyze-if), and the analysis plus a device estimate
 #      (bench/src/EstimateBench.java, preset generic-45nm), RUNS times each, interleaved; wall time
@@ -17,7 +17,7 @@
 #   4. prints the medians, the time per node, the least-squares line through (nodes, median wall) and
 #      whether the largest model stays under the 2 s budget.
 # The machine's load average is printed beside the numbers: other work on the 2 cores shows up in the
-# wall times (the CPU times are steadier). Scratch files go to bench/work/ (gitignored).
+# wall times (the CPU times are steadier). Scratch files go to bench/scratch/ (gitignored).
 set -euo pipefail
 
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
@@ -25,7 +25,7 @@ cd "$root"
 runs=${RUNS:-5}
 sizes=${SIZES:-"10000 50000 100000"}
 budget_ms=${BUDGET_MS:-2000}
-work=bench/work
+work=bench/scratch
 jar=cli/target/erg.jar
 mkdir -p "$work/classes"
 

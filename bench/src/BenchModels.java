@@ -48,7 +48,7 @@ public final class BenchModels {
     }
 
     public static void main(String[] args) throws Exception {
-        Path out = Path.of(args.length > 0 ? args[0] : "bench/work");
+        Path out = Path.of(args.length > 0 ? args[0] : "bench/scratch");
         Files.createDirectories(out);
         new OnnxWriter.Model(13, mlp("bench_big", 4096, 8192)).write(out.resolve("big.onnx"));
         new OnnxWriter.Model(13, mlp("bench_small", 64, 128)).write(out.resolve("small.onnx"));

@@ -158,7 +158,7 @@ public final class ScaleModels {
     }
 
     public static void main(String[] args) throws Exception {
-        Path out = Path.of(args.length > 0 ? args[0] : "bench/work");
+        Path out = Path.of(args.length > 0 ? args[0] : "bench/scratch");
         Files.createDirectories(out);
         boolean withIf = false;
         for (int i = 1; i < args.length; i++) {
