@@ -1,6 +1,6 @@
 #!/usr/bin/env bash
 # How much does estimation add to analysis? A ResNet-50-sized graph, one warm JVM, medians.
-#   bash bench/estimate.sh            # from anywhere; ROUNDS=201 for more rounds
+#   bash bench/estimate.sh            # from anywhere; ROUNDS=601 for more rounds
 set -euo pipefail
 root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
 cd "$root"
@@ -11,4 +11,4 @@ if [ ! -f "$jar" ] || [ -n "$(find estimator/src/main cli/src/main -newer "$jar"
   mvn -q -DskipTests package -pl cli -am
 fi
 javac -d "$work/classes" -cp "$jar" estimator/src/test/java/dev/erg/validation/ResNet50.java bench/src/EstimateOverhead.java
-java -cp "$jar:$work/classes" EstimateOverhead "$work" "${ROUNDS:-101}"
+java -cp "$jar:$work/classes" EstimateOverhead "$work" "${ROUNDS:-301}"

@@ -19,7 +19,7 @@ import java.util.Map;
 public final class EstimateOverhead {
     public static void main(String[] args) throws Exception {
         Path work = Path.of(args[0]);
-        int rounds = args.length > 1 ? Integer.parseInt(args[1]) : 101;
+        int rounds = args.length > 1 ? Integer.parseInt(args[1]) : 301;
         Files.createDirectories(work);
         Path model = work.resolve("resnet50.onnx");
         new OnnxWriter.Model(13, ResNet50.graph(1, true)).write(model);
@@ -29,8 +29,9 @@ public final class EstimateOverhead {
             devices[i] = DeviceLoader.load("preset:" + presets[i], Path.of("."));
         }
         ModelWorkload probe = Analyzer.analyze(model, Map.of());
-        // Warm-up: let the JIT compile both paths.
-        for (int i = 0; i < 300; i++) {
+        // Warm-up: run both paths for a few seconds so that the JIT has compiled them (steady state).
+        long warmUntil = System.nanoTime() + 4_000_000_000L;
+        while (System.nanoTime() < warmUntil) {
             ModelWorkload w = Analyzer.analyze(model, Map.of());
             for (DeviceProfile d : devices) {
                 Estimator.estimate(w, d);

@@ -87,24 +87,43 @@ public final class Estimator {
 
     // ---- the run ---------------------------------------------------------------------------
 
+    /** The nodes of the current run, by topological position. */
+    private List<NodeWork> works = List.of();
+    /** Per node of the run, the mask of its parameter inputs (looked up once per node). */
+    private long[] paramMask = new long[0];
+
+    private boolean isParam(Node node, int k) {
+        int i = posOf(node);
+        long mask = i >= 0 ? paramMask[i] : rules.parameterMask(node.opType());
+        return k < 64 && (mask >>> k & 1) != 0;
+    }
+
+    /** The position of {@code n} in this run's nodes, or -1 when it belongs to another graph (a subgraph). */
+    private int posOf(Node n) {
+        int i = n.index();
+        return i >= 0 && i < works.size() && works.get(i).node() == n ? i : -1;
+    }
+
     private DeviceEstimate run(ModelWorkload w) {
         List<NodeWork> works = w.nodes();
+        this.works = works;
+        this.paramMask = new long[works.size()];
+        for (int i = 0; i < works.size(); i++) {
+            paramMask[i] = rules.parameterMask(works.get(i).opType());
+        }
         int n = works.size();
         NodeEstimate[] est = new NodeEstimate[n];
-        Map<Node, Integer> pos = new IdentityHashMap<>(2 * n);
         for (int i = 0; i < n; i++) {
             est[i] = new NodeEstimate(works.get(i));
-            pos.put(works.get(i).node(), i);
         }
         Engine array = device.first(Engine.Kind.MAC_ARRAY);
         Engine vector = device.first(Engine.Kind.VECTOR);
         if (array == null && vector == null) {
             throw new BadInputException(device.id() + ": the profile has no engine");
         }
-        boolean[] fusedIn = fusion(works, est, pos);
-        this.posOf = pos;
+        boolean[] fusedIn = fusion(works, est);
         this.fusedInOf = fusedIn;
-        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>(2 * n));
         long[] weightBytes = new long[n];
         for (int i = 0; i < n; i++) {
             NodeWork nw = works.get(i);
@@ -113,17 +132,20 @@ public final class Estimator {
             }
             est[i].priced = true;
             est[i].precision = label(nw.precision());
-            List<TensorDef> src = new ArrayList<>(2);
+            List<TensorDef> src = null;
             long loose = 0;
             Node node = nw.node();
             for (int k = 0; k < node.inputCount(); k++) {
                 Value v = node.input(k);
-                if (v == null || !v.isConstant() || rules.isParameter(node.opType(), k)) {
+                if (v == null || !v.isConstant() || isParam(node, k)) {
                     continue;
                 }
                 if (v.sources().isEmpty()) {
                     loose += actBytes(v);
                 } else {
+                    if (src == null) {
+                        src = new ArrayList<>(2);
+                    }
                     for (TensorDef t : v.sources()) {
                         if (!containsSame(src, t)) {
                             src.add(t);
@@ -132,11 +154,13 @@ public final class Estimator {
                 }
             }
             long wb = loose;
-            for (TensorDef t : src) {
-                wb += storedBytes(t);
+            if (src != null) {
+                for (int q = 0; q < src.size(); q++) {
+                    wb += storedBytes(src.get(q));
+                }
+                allWeights.addAll(src);
             }
             weightBytes[i] = wb;
-            allWeights.addAll(src);
             if (nw.kind() == Kind.MAC) {
                 mapMac(est[i], nw, array != null ? array : vector, vector, wb, fusedIn[i]);
             } else {
@@ -147,8 +171,12 @@ public final class Estimator {
         for (TensorDef t : allWeights) {
             totalWeights += storedBytes(t);
         }
-        Placement p = place(works, est, weightBytes, totalWeights, fusedIn, pos);
-        Energy total = Energy.ZERO;
+        Placement p = place(works, est, weightBytes, totalWeights, fusedIn);
+        double eCompute = 0;
+        double eRegisters = 0;
+        double eSram = 0;
+        double eDram = 0;
+        double eStatic = 0;
         double latency = 0;
         long dramPerFrame = 0;
         for (int i = 0; i < n; i++) {
@@ -156,7 +184,12 @@ public final class Estimator {
                 continue;
             }
             finish(est[i], works.get(i), array, vector);
-            total = total.plus(est[i].energy);
+            Energy ne = est[i].energy;
+            eCompute += ne.compute();
+            eRegisters += ne.registers();
+            eSram += ne.sram();
+            eDram += ne.dram();
+            eStatic += ne.staticEnergy();
             latency += est[i].latencySeconds;
             dramPerFrame += est[i].dramReadBytes + est[i].dramWriteBytes;
         }
@@ -168,6 +201,7 @@ public final class Estimator {
             assumptions.add("the profile gives no DRAM bandwidth: DRAM time is not limiting");
         }
         List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
+        Energy total = new Energy(eCompute, eRegisters, eSram, eDram, eStatic);
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? totalWeights : 0, totalWeights, p.activationPeak, dramPerFrame, uniq);
     }
@@ -191,7 +225,7 @@ public final class Estimator {
      * Marks elementwise followers of MAC nodes as fused. Returns, per node, whether its first
      * activation input arrives fused (not read from SRAM). A fused-through output is not written.
      */
-    private boolean[] fusion(List<NodeWork> works, NodeEstimate[] est, Map<Node, Integer> pos) {
+    private boolean[] fusion(List<NodeWork> works, NodeEstimate[] est) {
         boolean[] fusedIn = new boolean[works.size()];
         for (int i = 0; i < works.size(); i++) {
             NodeWork head = works.get(i);
@@ -205,8 +239,8 @@ public final class Estimator {
                     break;
                 }
                 Node next = out.consumers().get(0);
-                Integer j = pos.get(next);
-                if (j == null || next.isFolded() || !FUSABLE.contains(next.opType())
+                int j = posOf(next);
+                if (j < 0 || next.isFolded() || !FUSABLE.contains(next.opType())
                         || works.get(j).kind() != Kind.VECTOR || fusedIn[j]) {
                     break;
                 }
@@ -222,12 +256,16 @@ public final class Estimator {
     }
 
     /** True when {@code v} is written by its producer straight into a fused follower. */
-    private static boolean fusedThrough(Value v, Map<Node, Integer> pos, boolean[] fusedIn) {
-        if (v.consumers().size() != 1 || v.isGraphOutput()) {
+    private boolean fusedThrough(Value v, boolean[] fusedIn) {
+        if (v.consumers().size() != 1 || v.isGraphOutput() || v.producer() == null) {
             return false;
         }
-        Integer j = pos.get(v.consumers().get(0));
-        return j != null && fusedIn[j];
+        int p = posOf(v.producer());
+        if (p < 0 || !(works.get(p).kind() == Kind.MAC || fusedIn[p]) || v.producer().output(0) != v) {
+            return false; // only the chain's own activation passes through: a residual operand is read
+        }
+        int j = posOf(v.consumers().get(0));
+        return j >= 0 && fusedIn[j];
     }
 
     // ---- mapping and on-chip traffic ----------------------------------------------------------
@@ -236,7 +274,7 @@ public final class Estimator {
         long b = 0;
         for (int k = 0; k < node.inputCount(); k++) {
             Value v = node.input(k);
-            if (v == null || v.isConstant() || rules.isParameter(node.opType(), k)) {
+            if (v == null || v.isConstant() || isParam(node, k)) {
                 continue;
             }
             if (skipFused && v == fusedValue) {
@@ -268,7 +306,7 @@ public final class Estimator {
         double oB = oBits / 8.0;
         double accB = engine.accumulatorBits() / 8.0;
         long macs = w.macs();
-        boolean writesOut = !fusedThrough(node.output(0), posOf, fusedInOf);
+        boolean writesOut = !fusedThrough(node.output(0), fusedInOf);
         if (g == 0 || engine.kind() == Engine.Kind.VECTOR) {
             // A subgraph-carrying node or a device with no array: every MAC from SRAM, one per unit per cycle.
             long units = engine.units();
@@ -332,8 +370,9 @@ public final class Estimator {
         Value fusedValue = fusedIn ? fusedInput(node) : null;
         long in = activationInputBytes(node, fusedIn, fusedValue);
         long out = 0;
-        for (Value v : node.outputs()) {
-            if (v != null && !fusedThrough(v, posOf, fusedInOf)) {
+        for (int vi = 0; vi < node.outputs().size(); vi++) {
+            Value v = node.outputs().get(vi);
+            if (v != null && !fusedThrough(v, fusedInOf)) {
                 out += actBytes(v);
             }
         }
@@ -344,7 +383,8 @@ public final class Estimator {
     }
 
     private static Value fusedInput(Node node) {
-        for (Value v : node.inputs()) {
+        for (int vi = 0; vi < node.inputs().size(); vi++) {
+            Value v = node.inputs().get(vi);
             if (v != null && v.producer() != null && !v.isConstant()) {
                 Node p = v.producer();
                 if (p.output(0) == v && v.consumers().size() == 1) {
@@ -360,7 +400,6 @@ public final class Estimator {
     }
 
     // The fusion state of the current run, read by the mapping helpers.
-    private Map<Node, Integer> posOf = new HashMap<>();
     private boolean[] fusedInOf = new boolean[0];
 
     // ---- capacity: residency, spills, tiling ---------------------------------------------------
@@ -410,10 +449,61 @@ public final class Estimator {
         }
     }
 
+    /**
+     * The buffer of each activation value: node outputs by producer position and output slot (no
+     * hashing on the hot path), graph inputs in a small map.
+     */
+    private final class BufferTable {
+        private final Buffer[][] out;
+        private final Map<Value, Buffer> inputs = new IdentityHashMap<>();
+
+        BufferTable(int nodes) {
+            out = new Buffer[nodes][];
+        }
+
+        Buffer get(Value v) {
+            Node p = v.producer();
+            if (p == null) {
+                return inputs.get(v);
+            }
+            int i = posOf(p);
+            if (i < 0 || out[i] == null) {
+                return null;
+            }
+            for (int j = 0; j < out[i].length; j++) {
+                if (p.output(j) == v) {
+                    return out[i][j];
+                }
+            }
+            return null;
+        }
+
+        void put(Value v, Buffer b) {
+            Node p = v.producer();
+            if (p == null) {
+                inputs.put(v, b);
+                return;
+            }
+            int i = posOf(p);
+            if (i < 0) {
+                return;
+            }
+            if (out[i] == null) {
+                out[i] = new Buffer[p.outputs().size()];
+            }
+            for (int j = 0; j < out[i].length; j++) {
+                if (p.output(j) == v) {
+                    out[i][j] = b;
+                    return;
+                }
+            }
+        }
+    }
+
     private Placement place(List<NodeWork> works, NodeEstimate[] est, long[] weightBytes, long totalWeights,
-                            boolean[] fusedIn, Map<Node, Integer> pos) {
+                            boolean[] fusedIn) {
         int n = works.size();
-        Map<Value, Buffer> bufOf = new IdentityHashMap<>(4 * n);
+        BufferTable bufOf = new BufferTable(n);
         List<Buffer> buffers = new ArrayList<>();
         for (int i = 0; i < n; i++) {
             NodeWork nw = works.get(i);
@@ -424,7 +514,7 @@ public final class Estimator {
             }
             for (int k = 0; k < node.inputCount(); k++) {
                 Value v = node.input(k);
-                if (v == null || v.isConstant() || rules.isParameter(node.opType(), k)) {
+                if (v == null || v.isConstant() || isParam(node, k)) {
                     continue;
                 }
                 Buffer b = bufOf.get(v);
@@ -434,7 +524,7 @@ public final class Estimator {
                     bufOf.put(v, b);
                     buffers.add(b);
                 }
-                if (b == null || (fusedIn[i] && fusedThrough(v, pos, fusedIn))) {
+                if (b == null || (fusedIn[i] && fusedThrough(v, fusedIn))) {
                     continue;
                 }
                 if (b.start < 0) {
@@ -443,15 +533,16 @@ public final class Estimator {
                 b.end = Math.max(b.end, i);
                 b.use(i);
             }
-            for (Value v : node.outputs()) {
+            for (int vi = 0; vi < node.outputs().size(); vi++) {
+                Value v = node.outputs().get(vi);
                 if (v == null || v.isConstant()) {
                     continue;
                 }
-                if (view && node.input(0) != null && bufOf.containsKey(node.input(0))) {
+                if (view && node.input(0) != null && bufOf.get(node.input(0)) != null) {
                     bufOf.put(v, bufOf.get(node.input(0)));
                     continue;
                 }
-                if (fusedThrough(v, pos, fusedIn)) {
+                if (fusedThrough(v, fusedIn)) {
                     continue;
                 }
                 Buffer b = new Buffer(v, actBytes(v));
@@ -489,21 +580,22 @@ public final class Estimator {
         // Sweep the schedule with the live set; evict idle buffers (furthest next use first) on overflow.
         long[] adjust = new long[n + 2];
         long adj = 0;
-        List<Buffer> byStart = new ArrayList<>(buffers);
-        byStart.removeIf(b -> b.start < 0);
-        byStart.sort((a, b) -> Integer.compare(a.start, b.start));
+        // Buffers are created in the order of their first step, so they are nearly always sorted by start
+        // already. Live buffers are appended as they start; ended ones are dropped when the list is scanned.
+        buffers.removeIf(b -> b.start < 0);
+        for (int q = 1; q < buffers.size(); q++) {
+            if (buffers.get(q - 1).start > buffers.get(q).start) {
+                buffers.sort((a, b) -> Integer.compare(a.start, b.start));
+                break;
+            }
+        }
         int next = 0;
-        Set<Buffer> active = Collections.newSetFromMap(new IdentityHashMap<>());
-        PriorityQueue<Buffer> byEnd = new PriorityQueue<>((a, b) -> Integer.compare(a.end, b.end));
+        List<Buffer> active = new ArrayList<>();
+        List<Buffer> touched = new ArrayList<>(8);
         for (int i = 0; i < n; i++) {
             adj += adjust[i];
-            while (next < byStart.size() && byStart.get(next).start <= i) {
-                Buffer b = byStart.get(next++);
-                active.add(b);
-                byEnd.add(b);
-            }
-            while (!byEnd.isEmpty() && byEnd.peek().end < i) {
-                active.remove(byEnd.poll());
+            while (next < buffers.size() && buffers.get(next).start <= i) {
+                active.add(buffers.get(next++));
             }
             NodeWork nw = works.get(i);
             if (!est[i].priced) {
@@ -511,16 +603,18 @@ public final class Estimator {
             }
             NodeEstimate e = est[i];
             Node node = nw.node();
-            List<Buffer> touched = new ArrayList<>(4);
+            touched.clear();
             long ownBytes = 0;
-            for (Value v : node.inputs()) {
+            for (int vi = 0; vi < node.inputs().size(); vi++) {
+                Value v = node.inputs().get(vi);
                 Buffer b = v == null ? null : bufOf.get(v);
                 if (b != null && b.usedAt(i) && !containsSame(touched, b)) {
                     touched.add(b);
                     ownBytes += b.bytes;
                 }
             }
-            for (Value v : node.outputs()) {
+            for (int vi = 0; vi < node.outputs().size(); vi++) {
+                Value v = node.outputs().get(vi);
                 Buffer b = v == null ? null : bufOf.get(v);
                 if (b != null && b.start == i && !containsSame(touched, b)) {
                     touched.add(b);
@@ -535,11 +629,18 @@ public final class Estimator {
             } else {
                 if (need > cap) {
                     List<Buffer> idle = new ArrayList<>();
-                    for (Buffer b : active) {
+                    int kept = 0;
+                    for (int q = 0; q < active.size(); q++) {
+                        Buffer b = active.get(q);
+                        if (b.end < i) {
+                            continue; // ended: drop it from the live list
+                        }
+                        active.set(kept++, b);
                         if (!containsSame(touched, b) && b.evictedUntil <= i && b.nextUseAfter(i) > 0) {
                             idle.add(b);
                         }
                     }
+                    active.subList(kept, active.size()).clear();
                     final int step = i;
                     idle.sort((a, b) -> Integer.compare(b.nextUseAfter(step), a.nextUseAfter(step)));
                     for (Buffer b : idle) {
@@ -572,7 +673,8 @@ public final class Estimator {
                     e.dramReadBytes += weightBytes[i];
                 }
             }
-            for (Value v : node.outputs()) {
+            for (int vi = 0; vi < node.outputs().size(); vi++) {
+                Value v = node.outputs().get(vi);
                 if (v != null && v.isGraphOutput() && !tile) {
                     e.dramWriteBytes += actBytes(v);
                 }
@@ -586,7 +688,7 @@ public final class Estimator {
      * tile, or keep an input tile and stream the weights again per tile, whichever moves fewer bytes.
      * A tile may take half the SRAM; the other half buffers the streamed operand and the outputs.
      */
-    private void tileNode(NodeEstimate e, Node node, List<Buffer> touched, Map<Value, Buffer> bufOf, long weights,
+    private void tileNode(NodeEstimate e, Node node, List<Buffer> touched, BufferTable bufOf, long weights,
                           long cap, int step, long[] adjust) {
         long in = 0;
         long out = 0;
@@ -677,7 +779,29 @@ public final class Estimator {
 
     private final Map<EnergyKey, Double> energyCache = new HashMap<>();
 
+    /** A few recent lookups, checked before the map: most nodes ask one of two or three questions. */
+    private final Engine[] memoEngine = new Engine[4];
+    private final String[] memoPrecision = new String[4];
+    private final String[] memoWhat = new String[4];
+    private final double[] memoEnergy = new double[4];
+    private int memoNext;
+
     private double energy(Engine engine, String precision, String what) {
+        for (int i = 0; i < memoEngine.length; i++) {
+            if (memoEngine[i] == engine && precision.equals(memoPrecision[i]) && what.equals(memoWhat[i])) {
+                return memoEnergy[i];
+            }
+        }
+        double fj = energyLookup(engine, precision, what);
+        int slot = memoNext++ & 3;
+        memoEngine[slot] = engine;
+        memoPrecision[slot] = precision;
+        memoWhat[slot] = what;
+        memoEnergy[slot] = fj;
+        return fj;
+    }
+
+    private double energyLookup(Engine engine, String precision, String what) {
         EnergyKey key = new EnergyKey(engine, precision, what);
         Double known = energyCache.get(key);
         if (known != null) {

@@ -22,6 +22,7 @@ public final class Value {
     private final String name;
     private ElemType type;
     private long[] dims;
+    private long elements = 1;
     private TensorValues data;
     private boolean constant;
     private TensorDef stored;
@@ -59,12 +60,9 @@ public final class Value {
         return dims.length;
     }
 
+    /** The element count: the product of the dims (kept from when the shape was set). */
     public long elements() {
-        long n = 1;
-        for (long d : dims) {
-            n *= d;
-        }
-        return n;
+        return elements;
     }
 
     /** Bytes of the value at its element type; 0 when the shape or type is unknown. */
@@ -78,6 +76,13 @@ public final class Value {
     public void setType(ElemType type, long[] dims) {
         this.type = type;
         this.dims = dims;
+        long n = 1;
+        if (dims != null) {
+            for (long d : dims) {
+                n *= d;
+            }
+        }
+        this.elements = n;
     }
 
     /** Values known at analysis time (small tensors only), or null. */

@@ -28,10 +28,12 @@ public enum ElemType {
     FLOAT4E2M1(23, 4, "fp4");
 
     private static final ElemType[] BY_CODE = new ElemType[24];
+    private static final boolean[] FLOATING = new boolean[values().length];
 
     static {
         for (ElemType t : values()) {
             BY_CODE[t.code] = t;
+            FLOATING[t.ordinal()] = t.floatingByKind();
         }
     }
 
@@ -51,6 +53,10 @@ public enum ElemType {
     }
 
     public boolean isFloat() {
+        return FLOATING[ordinal()];
+    }
+
+    private boolean floatingByKind() {
         switch (this) {
             case FLOAT: case FLOAT16: case DOUBLE: case BFLOAT16: case FLOAT8E4M3FN: case FLOAT8E4M3FNUZ:
             case FLOAT8E5M2: case FLOAT8E5M2FNUZ: case FLOAT4E2M1:

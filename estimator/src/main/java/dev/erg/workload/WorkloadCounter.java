@@ -55,7 +55,7 @@ public final class WorkloadCounter {
                 }
                 for (int i = 1; i < n.inputCount(); i++) {
                     Value v = n.input(i);
-                    if (v != null && v.isConstant() && !e.params.contains(i)) {
+                    if (v != null && v.isConstant() && !e.isParam(i)) {
                         macWeightConstants.addAll(v.sources());
                     }
                 }
@@ -170,7 +170,7 @@ public final class WorkloadCounter {
         List<TensorDef> seen = null; // a node reads few stored tensors: a list with identity checks
         for (int i = 0; i < n.inputCount(); i++) {
             Value v = n.input(i);
-            if (v == null || e.params.contains(i)) {
+            if (v == null || e.isParam(i)) {
                 continue;
             }
             if (v.isConstant()) {
@@ -212,6 +212,10 @@ public final class WorkloadCounter {
         if (v == null) {
             return null;
         }
+        Node p = v.producer();
+        if (!v.isConstant() && (p == null || !p.opType().equals("DequantizeLinear"))) {
+            return v.type();
+        }
         if (v.isConstant() && !v.sources().isEmpty()) {
             TensorDef big = null;
             for (TensorDef t : v.sources()) {
@@ -221,7 +225,6 @@ public final class WorkloadCounter {
             }
             return big.type();
         }
-        Node p = v.producer();
         if (p != null && p.opType().equals("DequantizeLinear") && p.input(0) != null) {
             return effectiveType(p.input(0));
         }
@@ -233,7 +236,7 @@ public final class WorkloadCounter {
         ElemType wt = null;
         for (int i = 0; i < n.inputCount(); i++) {
             Value v = n.input(i);
-            if (v == null || (e != null && e.params.contains(i))) {
+            if (v == null || (e != null && e.isParam(i))) {
                 continue;
             }
             ElemType t = effectiveType(v);

@@ -22,11 +22,22 @@ public final class WorkloadRules {
         final Kind kind;
         final WorkRule rule;
         final Set<Integer> params;
+        private final long paramMask;
 
         Entry(Kind kind, WorkRule rule, Set<Integer> params) {
             this.kind = kind;
             this.rule = rule;
             this.params = params;
+            long m = 0;
+            for (int i : params) {
+                m |= 1L << i;
+            }
+            this.paramMask = m;
+        }
+
+        /** True when input {@code i} is a parameter (shape, axes, scale) rather than moved data. */
+        boolean isParam(int i) {
+            return i < 64 && (paramMask >>> i & 1) != 0;
         }
     }
 
@@ -45,7 +56,13 @@ public final class WorkloadRules {
     /** True when input {@code index} of {@code opType} is a parameter (shape, axes, scale), not moved data. */
     public boolean isParameter(String opType, int index) {
         Entry e = table.get(opType);
-        return e != null && e.params.contains(index);
+        return e != null && e.isParam(index);
+    }
+
+    /** Bit i is set when input i of {@code opType} is a parameter (see {@link #isParameter}). */
+    public long parameterMask(String opType) {
+        Entry e = table.get(opType);
+        return e == null ? 0 : e.paramMask;
     }
 
     /** The kind of work of {@code opType}, or null when it has no rule. */
