@@ -1,5 +1,6 @@
 package dev.erg.cli;
 
+import dev.erg.AnalysisOptions;
 import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Gate;
@@ -75,6 +76,10 @@ final class CheckCommand implements Callable<Integer> {
             description = "Report formats for --report-dir, comma-separated (default: ${DEFAULT-VALUE}).")
     String formats;
 
+    @Option(names = "--fail-on-unmodelled",
+            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
+    boolean failOnUnmodelled;
+
     @Option(names = "--dim", paramLabel = "NAME=VALUE",
             description = "Binds a symbolic input dim, e.g. --dim batch=1 (repeatable; applies to every model).")
     List<String> dims = new ArrayList<>();
@@ -121,7 +126,7 @@ final class CheckCommand implements Callable<Integer> {
         }
         Baseline base = baseline == null ? null : Baseline.read(baseline);
         GateResult result = Gate.evaluate(specs, profiles, budget, base, baseline == null ? null : baseline.toString(),
-                writeBaseline ? null : maxGrowthPercent, line -> { });
+                writeBaseline ? null : maxGrowthPercent, line -> { }, new AnalysisOptions(failOnUnmodelled));
         PrintWriter out = spec.commandLine().getOut();
         if (result.baselineNote() != null && !writeBaseline) {
             out.println("note: " + result.baselineNote());

@@ -1,5 +1,6 @@
 package dev.erg.cli;
 
+import dev.erg.AnalysisOptions;
 import dev.erg.Analyzer;
 import dev.erg.BadInputException;
 import dev.erg.device.DeviceLoader;
@@ -36,6 +37,10 @@ final class EstimateCommand implements Callable<Integer> {
             description = "The frame rate that average power is taken at (default: frames back to back).")
     Double fps;
 
+    @Option(names = "--fail-on-unmodelled",
+            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
+    boolean failOnUnmodelled;
+
     @Option(names = "--dim", paramLabel = "NAME=VALUE",
             description = "Binds a symbolic input dim, e.g. --dim batch=1 (repeatable).")
     List<String> dims = new ArrayList<>();
@@ -58,7 +63,7 @@ final class EstimateCommand implements Callable<Integer> {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
         DeviceProfile profile = DeviceLoader.load(device, null);
-        ModelWorkload w = Analyzer.analyze(model, bound);
+        ModelWorkload w = Analyzer.analyze(model, bound, new AnalysisOptions(failOnUnmodelled));
         DeviceEstimate e = Estimator.estimate(w, profile);
         PrintWriter out = spec.commandLine().getOut();
         out.print(ConsoleReport.estimate(e, fps, top));

@@ -1,5 +1,6 @@
 package dev.erg.budget;
 
+import dev.erg.AnalysisOptions;
 import dev.erg.Analyzer;
 import dev.erg.device.DeviceProfile;
 import dev.erg.estimate.DeviceEstimate;
@@ -60,10 +61,18 @@ public final class Gate {
     public static GateResult evaluate(List<ModelSpec> models, List<DeviceProfile> devices, Budget budget,
                                       Baseline baseline, String baselineFile, Double maxGrowthPercent,
                                       Progress progress) {
+        return evaluate(models, devices, budget, baseline, baselineFile, maxGrowthPercent, progress,
+                AnalysisOptions.DEFAULTS);
+    }
+
+    /** As above; with {@code options.failOnUnmodelled()}, a model with an unmodelled operator is bad input. */
+    public static GateResult evaluate(List<ModelSpec> models, List<DeviceProfile> devices, Budget budget,
+                                      Baseline baseline, String baselineFile, Double maxGrowthPercent,
+                                      Progress progress, AnalysisOptions options) {
         List<PairResult> pairs = new ArrayList<>();
         for (ModelSpec m : models) {
             progress.say("analysing " + m.label);
-            ModelWorkload w = Analyzer.analyze(m.file, m.dims);
+            ModelWorkload w = Analyzer.analyze(m.file, m.dims, options);
             for (DeviceProfile d : devices) {
                 progress.say("estimating " + m.label + " on " + d.id());
                 DeviceEstimate e = Estimator.estimate(w, d);

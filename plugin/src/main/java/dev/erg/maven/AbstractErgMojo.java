@@ -1,5 +1,6 @@
 package dev.erg.maven;
 
+import dev.erg.AnalysisOptions;
 import dev.erg.BadInputException;
 import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
@@ -51,6 +52,14 @@ abstract class AbstractErgMojo extends AbstractMojo {
      */
     @Parameter(property = "erg.baseline")
     String baseline;
+
+    /**
+     * Makes an operator that erg has no rule for (or a node left unresolved downstream of one) an
+     * error instead of a line in the reports. Unmodelled nodes are never priced, so the totals of such
+     * a model are incomplete.
+     */
+    @Parameter(property = "erg.failOnUnmodelled", defaultValue = "false")
+    boolean failOnUnmodelled;
 
     /** Skips the goal. */
     @Parameter(property = "erg.skip", defaultValue = "false")
@@ -220,7 +229,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
         Baseline base = useBaseline && s.baselineFile != null ? Baseline.read(s.baselineFile) : null;
         GateResult r = Gate.evaluate(s.models, profiles, budget, base, useBaseline ? s.baselineLabel : null,
                 useBaseline && s.baselineLabel != null ? s.maxGrowthPercent : null,
-                line -> getLog().info(PREFIX + line));
+                line -> getLog().info(PREFIX + line), new AnalysisOptions(failOnUnmodelled));
         Map<String, String> stems = new HashMap<>();
         for (PairResult p : r.pairs()) {
             String who = p.model() + " on " + p.device();

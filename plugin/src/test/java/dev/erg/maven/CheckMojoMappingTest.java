@@ -66,6 +66,7 @@ class CheckMojoMappingTest {
         assertEquals(7.5, s.maxGrowthPercent);
         assertEquals(Set.of("json", "markdown"), s.formats, "comma-separated, blanks allowed");
         assertEquals(base.resolve("target/erg-reports"), s.outputDirectory, "a File parameter, resolved by Maven");
+        assertTrue(mojo.failOnUnmodelled);
         assertFalse(mojo.skip);
     }
 
@@ -81,6 +82,7 @@ class CheckMojoMappingTest {
         // The harness's stub project has no build directory, so the default expression stays as the
         // descriptor declares it; the integration tests see it resolve to target/erg in a real build.
         assertEquals(new File(mojo.basedir, "${project.build.directory}/erg").toPath(), s.outputDirectory);
+        assertFalse(mojo.failOnUnmodelled);
         assertFalse(mojo.skip);
     }
 
