@@ -39,4 +39,19 @@ public final class Analyzer {
         ModelWorkload w = WorkloadCounter.count(graph);
         return options.failOnUnmodelled() ? w.requireComplete() : w;
     }
+
+    /**
+     * Notes for bindings that match no symbolic dim of the model's inputs (a typo goes unnoticed
+     * otherwise): one sentence per unused name, sorted; empty when every binding was used.
+     */
+    public static java.util.List<String> unusedDimNotes(ModelWorkload w, Map<String, Long> dims) {
+        java.util.List<String> notes = new java.util.ArrayList<>();
+        for (String name : new java.util.TreeSet<>(dims.keySet())) {
+            if (!w.graph().boundDims().containsKey(name)) {
+                notes.add(w.graph().fileLabel() + ": the dimension '" + name
+                        + "' is bound, but no graph input has a symbolic dim of that name; the binding is unused");
+            }
+        }
+        return notes;
+    }
 }

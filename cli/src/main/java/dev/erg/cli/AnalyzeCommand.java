@@ -60,6 +60,9 @@ final class AnalyzeCommand implements Callable<Integer> {
             }
             out.println("JSON written to " + json);
         }
+        for (String n : Analyzer.unusedDimNotes(w, bound)) {
+            out.println("note: " + n);
+        }
         out.flush();
         return Main.OK;
     }

@@ -128,6 +128,9 @@ final class CheckCommand implements Callable<Integer> {
         GateResult result = Gate.evaluate(specs, profiles, budget, base, baseline == null ? null : baseline.toString(),
                 writeBaseline ? null : maxGrowthPercent, line -> { }, new AnalysisOptions(failOnUnmodelled));
         PrintWriter out = spec.commandLine().getOut();
+        for (String n : result.notes()) {
+            out.println("note: " + n);
+        }
         if (result.baselineNote() != null && !writeBaseline) {
             out.println("note: " + result.baselineNote());
             out.println();

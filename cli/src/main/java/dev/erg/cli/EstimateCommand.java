@@ -75,6 +75,9 @@ final class EstimateCommand implements Callable<Integer> {
             }
             out.println("JSON written to " + json);
         }
+        for (String n : Analyzer.unusedDimNotes(w, bound)) {
+            out.println("note: " + n);
+        }
         out.flush();
         return Main.OK;
     }

@@ -31,8 +31,8 @@ final class Options {
             } catch (NumberFormatException e) {
                 throw usage(spec, "--dim " + name + ": '" + value + "' is not a whole number");
             }
-            if (v < 0) {
-                throw usage(spec, "--dim " + name + ": the value " + v + " is negative");
+            if (v < 1) {
+                throw usage(spec, "--dim " + name + ": the value " + v + " is below 1; a dim must be at least 1");
             }
             if (out.put(name, v) != null) {
                 throw usage(spec, "--dim " + name + " is given twice");

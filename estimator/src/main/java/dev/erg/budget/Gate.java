@@ -70,16 +70,18 @@ public final class Gate {
                                       Baseline baseline, String baselineFile, Double maxGrowthPercent,
                                       Progress progress, AnalysisOptions options) {
         List<PairResult> pairs = new ArrayList<>();
+        List<String> notes = new ArrayList<>();
         for (ModelSpec m : models) {
             progress.say("analysing " + m.label);
             ModelWorkload w = Analyzer.analyze(m.file, m.dims, options);
+            notes.addAll(Analyzer.unusedDimNotes(w, m.dims));
             for (DeviceProfile d : devices) {
                 progress.say("estimating " + m.label + " on " + d.id());
                 DeviceEstimate e = Estimator.estimate(w, d);
                 pairs.add(evaluatePair(m.label, d.id(), e, budget, baseline, maxGrowthPercent));
             }
         }
-        return new GateResult(pairs, budget, maxGrowthPercent, baselineFile, baseline != null);
+        return new GateResult(pairs, budget, maxGrowthPercent, baselineFile, baseline != null, notes);
     }
 
     static String fmt(double v) {

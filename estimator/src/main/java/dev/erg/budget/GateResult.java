@@ -10,9 +10,16 @@ public final class GateResult {
     private final Double maxGrowthPercent;
     private final String baselineFile;
     private final boolean baselineFound;
+    private final List<String> notes;
 
     GateResult(List<PairResult> pairs, Budget budget, Double maxGrowthPercent, String baselineFile,
                boolean baselineFound) {
+        this(pairs, budget, maxGrowthPercent, baselineFile, baselineFound, List.of());
+    }
+
+    GateResult(List<PairResult> pairs, Budget budget, Double maxGrowthPercent, String baselineFile,
+               boolean baselineFound, List<String> notes) {
+        this.notes = List.copyOf(notes);
         this.pairs = List.copyOf(pairs);
         this.budget = budget;
         this.maxGrowthPercent = maxGrowthPercent;
@@ -36,6 +43,11 @@ public final class GateResult {
     /** The baseline file as configured, or null when none is configured. */
     public String baselineFile() {
         return baselineFile;
+    }
+
+    /** Warnings about the configuration that do not stop the gate (e.g. an unused dimension binding). */
+    public List<String> notes() {
+        return notes;
     }
 
     public boolean baselineFound() {

@@ -256,5 +256,8 @@ abstract class AbstractErgMojo extends AbstractMojo {
         if (note != null) {
             getLog().warn(PREFIX + note);
         }
+        for (String n : r.notes()) {
+            getLog().warn(PREFIX + n);
+        }
     }
 }
