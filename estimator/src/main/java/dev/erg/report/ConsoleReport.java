@@ -109,8 +109,8 @@ public final class ConsoleReport {
             t.appendTo(b, "");
         }
         b.append("Totals: latency ").append(Format.sig(e.latencySeconds() * 1e3)).append(" ms, max ")
-                .append(Format.sig(e.maxFps())).append(" fps, ").append(Format.sig(e.energyPerFrameJoules() * 1e6))
-                .append(" µJ per frame, ").append(Format.sig(f.averagePowerWatts() * 1e3)).append(" mW at ")
+                .append(Format.sig(e.maxFps())).append(" fps, ").append(Format.joules(e.energyPerFrameJoules()))
+                .append(" per frame, ").append(Format.sig(f.averagePowerWatts() * 1e3)).append(" mW at ")
                 .append(Format.sig(f.fps)).append(" fps\n");
         b.append("Energy: ").append(f.energySplit()).append('\n');
         long cap = f.profile().sram().capacityBytes();

@@ -145,6 +145,21 @@ final class Format {
      * A quantity to three significant digits in plain notation, trailing zeros dropped: 0.0553,
      * 2.84, 99.5, 328, 1230. "0" for zero, "∞" for an infinite value, "n/a" for NaN.
      */
+    /** An energy in joules with the unit that keeps it readable: nJ, µJ, mJ or J. */
+    static String joules(double j) {
+        double a = Math.abs(j);
+        if (a != 0 && a < 1e-6) {
+            return sig(j * 1e9) + " nJ";
+        }
+        if (a < 1e-3) {
+            return sig(j * 1e6) + " µJ";
+        }
+        if (a < 1) {
+            return sig(j * 1e3) + " mJ";
+        }
+        return sig(j) + " J";
+    }
+
     static String sig(double v) {
         if (Double.isNaN(v)) {
             return "n/a";
