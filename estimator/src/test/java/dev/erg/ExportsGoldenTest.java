@@ -53,6 +53,27 @@ class ExportsGoldenTest {
         }
     }
 
+    /**
+     * Symbolic batch: bound dims flow through the exporter's shape chains. MACs grow exactly with the
+     * batch (common practice, no single source: every layer's work is per sample); batch 1 of ViT-B/16
+     * equals its fixed-shape analytic count, and MobileNetV3-Small lands on its published 56 M (Howard
+     * et al., "Searching for MobileNetV3", ICCV 2019, Table 3).
+     */
+    @Test
+    void symbolicBatch() {
+        Path dyn = exports().resolve("dynamic");
+        ModelWorkload vit1 = Analyzer.analyze(dyn.resolve("vit_b_16.batch.graph.onnx"), Map.of("batch", 1L));
+        ModelWorkload vit4 = Analyzer.analyze(dyn.resolve("vit_b_16.batch.graph.onnx"), Map.of("batch", 4L));
+        assertTrue(vit1.complete() && vit4.complete());
+        assertEquals(17_563_828_224L, vit1.macs(), "analytic count, models/exports/README.md");
+        assertEquals(4 * vit1.macs(), vit4.macs());
+        ModelWorkload mb1 = Analyzer.analyze(dyn.resolve("mobilenet_v3_small.batch.graph.onnx"), Map.of("batch", 1L));
+        ModelWorkload mb4 = Analyzer.analyze(dyn.resolve("mobilenet_v3_small.batch.graph.onnx"), Map.of("batch", 4L));
+        assertTrue(mb1.complete() && mb4.complete());
+        assertEquals(4 * mb1.macs(), mb4.macs());
+        assertTrue(Math.abs(mb1.macs() / 56e6 - 1) <= 0.02, "MobileNetV3-Small: " + mb1.macs());
+    }
+
     private static void published(String network, String arch, double value, double tolerance, String source) {
         ModelWorkload w = Analyzer.analyze(exports().resolve("opset13").resolve(arch + ".graph.onnx"), Map.of());
         double ratio = w.macs() / value;
