@@ -71,7 +71,8 @@ public final class OnnxReader {
     /** Reads the model in {@code file}. */
     public static OnnxModel read(Path file) {
         if (!Files.isRegularFile(file)) {
-            throw new BadInputException(file + ": no such model file");
+            throw new BadInputException(file + (Files.isDirectory(file) ? ": is a folder, not a model file"
+                    : ": no such model file"));
         }
         long size;
         try {
@@ -255,7 +256,8 @@ public final class OnnxReader {
             }
         }
         if (graph == null || !sawHeader) {
-            throw badHere("not an ONNX model: the file holds no " + (graph == null ? "graph" : "ir_version or opset_import")
+            throw badHere("not an ONNX model (or a truncated one): the file holds no "
+                    + (graph == null ? "graph" : "ir_version or opset_import")
                     + " (ModelProto fields 7, 1 and 8)");
         }
         if (opsets.isEmpty()) {
