@@ -141,9 +141,10 @@ final class CheckCommand implements Callable<Integer> {
             out.println("reports written to " + reportDir + " (" + files.size() + (files.size() == 1 ? " file)" : " files)"));
         }
         if (writeBaseline) {
-            Baseline.of(result.pairs()).write(baseline);
+            Baseline fresh = Baseline.of(result.pairs()).over(Baseline.read(baseline));
+            fresh.write(baseline);
             out.println("baseline written to " + baseline + " (" + result.pairs().size()
-                    + (result.pairs().size() == 1 ? " entry)" : " entries)"));
+                    + (result.pairs().size() == 1 ? " entry" : " entries") + " refreshed, " + fresh.size() + " in all)");
         }
         out.flush();
         return result.passed() ? Main.OK : Main.BUDGET_BREACH;

@@ -139,6 +139,19 @@ public final class Baseline {
         return new Baseline(m);
     }
 
+    /**
+     * This baseline with the entries of {@code older} that it does not replace: refreshing some
+     * models or devices keeps the others' records. {@code older} may be null.
+     */
+    public Baseline over(Baseline older) {
+        if (older == null) {
+            return this;
+        }
+        Map<String, Entry> m = new TreeMap<>(older.entries);
+        m.putAll(entries);
+        return new Baseline(m);
+    }
+
     /** Reads a baseline file; returns null when the file does not exist. */
     public static Baseline read(Path file) {
         if (!Files.exists(file)) {

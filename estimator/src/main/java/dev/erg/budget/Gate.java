@@ -181,7 +181,7 @@ public final class Gate {
         if (budget.maxWeightKib() != null) {
             double kib = e.weightBytes() / 1024.0;
             boolean ok = kib <= budget.maxWeightKib();
-            List<LayerShare> top = top(e, n -> n.work().weightBytes());
+            List<LayerShare> top = top(e, NodeEstimate::weightBytes);
             checks.add(new Check(Check.Kind.BUDGET, Metric.WEIGHTS, kib, budget.maxWeightKib(), Double.NaN, ok, top,
                     who + ": weights " + fmt(kib) + " KiB " + (ok ? "fit" : "exceed") + " the limit of "
                             + fmt(budget.maxWeightKib()) + " KiB" + (ok ? "" : shares("weight bytes", top))));

@@ -161,6 +161,7 @@ public final class Estimator {
                 allWeights.addAll(src);
             }
             weightBytes[i] = wb;
+            est[i].weightBytes = wb;
             if (nw.kind() == Kind.MAC) {
                 mapMac(est[i], nw, array != null ? array : vector, vector, wb, fusedIn[i]);
             } else {

@@ -19,6 +19,7 @@ public final class NodeEstimate {
     long sramWriteBytes;
     long dramReadBytes;
     long dramWriteBytes;
+    long weightBytes;
     double computeSeconds;
     double sramSeconds;
     double dramSeconds;
@@ -83,6 +84,11 @@ public final class NodeEstimate {
 
     public long dramWriteBytes() {
         return dramWriteBytes;
+    }
+
+    /** Bytes of the constants the node reads (weights, biases), at the deployed precision. */
+    public long weightBytes() {
+        return weightBytes;
     }
 
     public double computeSeconds() {
