@@ -75,6 +75,11 @@ public final class Gate {
             progress.say("analysing " + m.label);
             ModelWorkload w = Analyzer.analyze(m.file, m.dims, options);
             notes.addAll(Analyzer.unusedDimNotes(w, m.dims));
+            if (!w.complete()) {
+                notes.add(w.incompleteness() + ". Those nodes are not priced, so every total is a lower bound"
+                        + " and a budget can pass that the full model would break"
+                        + " (the fail-on-unmodelled option makes this an error)");
+            }
             for (DeviceProfile d : devices) {
                 progress.say("estimating " + m.label + " on " + d.id());
                 DeviceEstimate e = Estimator.estimate(w, d);

@@ -83,6 +83,14 @@ public final class ModelWorkload {
         if (complete()) {
             return this;
         }
+        throw new BadInputException(incompleteness());
+    }
+
+    /** One line naming what was not modelled ("...: the analysis is incomplete: no rule for X (2 nodes)"), or null. */
+    public String incompleteness() {
+        if (complete()) {
+            return null;
+        }
         StringBuilder b = new StringBuilder(graph.fileLabel()).append(": the analysis is incomplete:");
         if (!unmodelled.isEmpty()) {
             b.append(" no rule for ").append(list(unmodelled()));
@@ -90,7 +98,7 @@ public final class ModelWorkload {
         if (!unresolved.isEmpty()) {
             b.append(unmodelled.isEmpty() ? " " : "; ").append("unresolved downstream: ").append(list(unresolved()));
         }
-        throw new BadInputException(b.toString());
+        return b.toString();
     }
 
     private static String list(Map<String, Integer> counts) {
