@@ -73,6 +73,26 @@ class EstimatorTest {
         assertEquals(1 / 74.72e-6, e.maxFps(), 1e-6);
     }
 
+    /**
+     * The convolution of worked example 1 on an 8x8 output-stationary array: positions on rows,
+     * output channels on columns, the reduction streamed. folds ceil(100/8) = 13 x ceil(16/8) = 2;
+     * cycles 13 * 2 * 72 = 1872; utilisation 115200 / (1872 * 64) = 0.9615...; SRAM reads: inputs
+     * 100*72*2 = 14400 + weights 72*16*13 = 14976 = 29376; writes: outputs once, 1600.
+     */
+    @Test
+    void outputStationaryCounts() {
+        ModelWorkload w = Models.analyze(Models.conv(8, 10, 10, 16, 3, 1));
+        TestDevice d = new TestDevice();
+        d.dataflow = Dataflow.OUTPUT_STATIONARY;
+        NodeEstimate c = only(Estimator.estimate(w, d.build()), "Conv");
+        assertEquals(1872, c.computeCycles());
+        assertEquals(115_200.0 / (1872 * 64), c.utilization(), EPS);
+        assertEquals(29_376, c.sramReadBytes());
+        assertEquals(1_600, c.sramWriteBytes());
+        assertEquals(115_200L * 6, c.registerReadBytes());
+        assertEquals(115_200L * 4, c.registerWriteBytes());
+    }
+
     /** The same convolution on wider arrays: fewer folds, fewer SRAM reads. */
     @Test
     void sramTrafficFallsAsTheArrayWidens() {
