@@ -709,7 +709,10 @@ public final class Estimator {
         long passesB = Math.max(1, ceilDiv(in, tileCap));
         long a = weights + passesA * in;
         long b = in + passesB * weights;
-        if (a <= b) {
+        if (weights == 0) {
+            e.dramReadBytes += in;
+            e.tiling = "streamed through SRAM in tiles (no weights)";
+        } else if (a <= b) {
             e.dramReadBytes += a;
             e.tiling = "weight tiles x" + passesA + ", inputs streamed per tile";
         } else {

@@ -77,6 +77,40 @@ class CapacityAndRooflineTest {
     }
 
     /**
+     * Spill, worked by hand (deployed at int8, 40 KiB of SRAM, no weights). x (16 KiB) -> Relu a ->
+     * Relu b -> Relu c (a graph output), and a ReduceSum of a at the end (the other output, 1 byte).
+     * Live bytes per step: 32, 32, 48 and 16 KiB; the peak 48 KiB exceeds the SRAM, so nothing is
+     * resident. At step 2 (the third Relu) a is idle until step 3: it is evicted, written to DRAM
+     * (16384 B), and read back by the ReduceSum (16384 B). DRAM per frame: x read 16384 at step 0,
+     * a written and c written at step 2 (32768), a read and s written at step 3 (16384 + 1).
+     */
+    @Test
+    void anIdleActivationSpillsAndComesBack() {
+        ModelWorkload w = Models.analyze(new OnnxWriter.Graph("spill")
+                .input("x", ElemType.FLOAT, 16384)
+                .node("Relu", "r0", List.of("x"), List.of("a"))
+                .node("Relu", "r1", List.of("a"), List.of("b"))
+                .node("Relu", "r2", List.of("b"), List.of("c"))
+                .node("ReduceSum", "sum", List.of("a"), List.of("s"), OnnxWriter.attr("keepdims", 0L))
+                .output("c", ElemType.FLOAT)
+                .output("s", ElemType.FLOAT));
+        TestDevice d = new TestDevice();
+        d.sramBytes = 40 * 1024;
+        DeviceEstimate e = Estimator.estimate(w, d.build());
+        assertFalse(e.weightsResident());
+        assertEquals(48 * 1024, e.activationPeakBytes());
+        List<NodeEstimate> n = e.nodes();
+        assertEquals(16_384, n.get(0).dramReadBytes());
+        assertEquals(0, n.get(0).dramWriteBytes());
+        assertEquals(0, n.get(1).dramReadBytes() + n.get(1).dramWriteBytes());
+        assertEquals(0, n.get(2).dramReadBytes());
+        assertEquals(32_768, n.get(2).dramWriteBytes(), "a spilled, c written out");
+        assertEquals(16_384, n.get(3).dramReadBytes(), "a read back");
+        assertEquals(1, n.get(3).dramWriteBytes());
+        assertEquals(65_537, e.dramBytesPerFrame());
+    }
+
+    /**
      * One layer larger than the SRAM: x [64,1024] (64 KiB at int8) times w [1024,256] (256 KiB) into
      * y [64,256] (16 KiB), with 128 KiB of SRAM. A tile may take half: 64 KiB.
      * Keep weight tiles: ceil(256/64) = 4 passes, 256 + 4 * 64 = 512 KiB read.
