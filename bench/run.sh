@@ -17,38 +17,9 @@
 # bench/ is not a Maven module: 'mvn test' never runs it. Scratch files go to bench/scratch/ (gitignored).
 set -euo pipefail
 
-root=$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)
-cd "$root"
+source "$(dirname "${BASH_SOURCE[0]}")/common.sh"
 runs=${RUNS:-5}
-work=bench/scratch
-jar=cli/target/erg.jar
-mkdir -p "$work/classes"
 
-say() { printf '%s\n' "$*" >&2; }
-
-# ---- tools -------------------------------------------------------------------------------------
-if [ ! -x /usr/bin/time ]; then
-  say "installing GNU time (Debian package 'time') for peak RSS"
-  if command -v apt-get >/dev/null 2>&1; then
-    (apt-get install -y -qq time >/dev/null 2>&1 || { apt-get update -qq >/dev/null 2>&1 && apt-get install -y -qq time >/dev/null 2>&1; }) \
-      || say "could not install GNU time: peak RSS will be left out"
-  fi
-fi
-have_time=0; [ -x /usr/bin/time ] && have_time=1
-
-# ---- build -------------------------------------------------------------------------------------
-stale=0
-if [ ! -f "$jar" ] || [ "${REBUILD:-0}" = 1 ]; then
-  stale=1
-elif [ -n "$(find pom.xml estimator/pom.xml cli/pom.xml estimator/src/main cli/src/main -newer "$jar" -type f 2>/dev/null | head -1)" ]; then
-  stale=1
-fi
-if [ "$stale" = 1 ]; then
-  say "building $jar"
-  mvn -q -DskipTests package -pl cli -am
-else
-  say "reusing $jar"
-fi
 
 # ---- models and the reference reader -----------------------------------------------------------
 if [ ! -f "$work/classes/PlainRead.class" ] || [ ! -f "$work/classes/BenchModels.class" ] \
