@@ -114,6 +114,7 @@ mib() { awk -v k="$1" 'BEGIN { printf "%.0f", k / 1024 }'; }
     for n in $sizes; do pts+="$n $(median "${wall["${what}_$n"]}") "; done
     awk -v what="$what" -v pts="$pts" 'BEGIN {
       k = split(pts, a, " "); m = k / 2
+      if (m < 2) { printf "%s: one size only, no line to fit (give SIZES at least two node counts)\n", what; exit }
       for (i = 1; i <= m; i++) { x = a[2*i-1]; y = a[2*i]; sx += x; sy += y; sxx += x*x; sxy += x*y }
       b = (m * sxy - sx * sy) / (m * sxx - sx * sx); c = (sy - b * sx) / m
       for (i = 1; i <= m; i++) { x = a[2*i-1]; y = a[2*i]; f = c + b * x; r = (y - f); ss += r*r; st += (y - sy/m)^2 }
