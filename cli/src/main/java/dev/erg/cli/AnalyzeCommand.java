@@ -1,6 +1,5 @@
 package dev.erg.cli;
 
-import dev.erg.AnalysisOptions;
 import dev.erg.Analyzer;
 import dev.erg.BadInputException;
 import dev.erg.report.AnalysisJson;
@@ -9,8 +8,6 @@ import dev.erg.workload.ModelWorkload;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
@@ -25,9 +22,8 @@ final class AnalyzeCommand implements Callable<Integer> {
     @Parameters(index = "0", paramLabel = "MODEL.onnx", description = "The ONNX model file.")
     Path model;
 
-    @Option(names = "--dim", paramLabel = "NAME=VALUE",
-            description = "Binds a symbolic input dim, e.g. --dim batch=1 (repeatable).")
-    List<String> dims = new ArrayList<>();
+    @CommandLine.Mixin
+    ModelOptions modelOptions = new ModelOptions();
 
     @Option(names = "--json", paramLabel = "FILE", description = "Also writes the analysis as JSON to FILE.")
     Path json;
@@ -36,20 +32,16 @@ final class AnalyzeCommand implements Callable<Integer> {
             description = "How many nodes the table lists, most MACs first (default: ${DEFAULT-VALUE}).")
     int top;
 
-    @Option(names = "--fail-on-unmodelled",
-            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
-    boolean failOnUnmodelled;
-
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
     @Override
     public Integer call() {
-        Map<String, Long> bound = Options.dims(spec, dims);
+        Map<String, Long> bound = modelOptions.bound(spec);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
-        ModelWorkload w = Analyzer.analyze(model, bound, new AnalysisOptions(failOnUnmodelled));
+        ModelWorkload w = Analyzer.analyze(model, bound, modelOptions.analysis());
         PrintWriter out = spec.commandLine().getOut();
         out.print(AnalysisTable.render(w, top));
         if (json != null) {

@@ -1,6 +1,5 @@
 package dev.erg.cli;
 
-import dev.erg.AnalysisOptions;
 import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Gate;
@@ -76,13 +75,8 @@ final class CheckCommand implements Callable<Integer> {
             description = "Report formats for --report-dir, comma-separated (default: ${DEFAULT-VALUE}).")
     String formats;
 
-    @Option(names = "--fail-on-unmodelled",
-            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
-    boolean failOnUnmodelled;
-
-    @Option(names = "--dim", paramLabel = "NAME=VALUE",
-            description = "Binds a symbolic input dim, e.g. --dim batch=1 (repeatable; applies to every model).")
-    List<String> dims = new ArrayList<>();
+    @CommandLine.Mixin
+    ModelOptions modelOptions = new ModelOptions();
 
     @Option(names = "--top", paramLabel = "N", defaultValue = "" + ConsoleReport.DEFAULT_TOP,
             description = "How many layers the console lists per pair, most energy first (default: ${DEFAULT-VALUE}).")
@@ -93,7 +87,7 @@ final class CheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Map<String, Long> bound = Options.dims(spec, dims);
+        Map<String, Long> bound = modelOptions.bound(spec);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
@@ -126,7 +120,7 @@ final class CheckCommand implements Callable<Integer> {
         }
         Baseline base = baseline == null ? null : Baseline.read(baseline);
         GateResult result = Gate.evaluate(specs, profiles, budget, base, baseline == null ? null : baseline.toString(),
-                writeBaseline ? null : maxGrowthPercent, line -> { }, new AnalysisOptions(failOnUnmodelled));
+                writeBaseline ? null : maxGrowthPercent, line -> { }, modelOptions.analysis());
         PrintWriter out = spec.commandLine().getOut();
         for (String n : result.notes()) {
             out.println("note: " + n);

@@ -1,6 +1,5 @@
 package dev.erg.cli;
 
-import dev.erg.AnalysisOptions;
 import dev.erg.Analyzer;
 import dev.erg.BadInputException;
 import dev.erg.device.DeviceLoader;
@@ -13,8 +12,6 @@ import dev.erg.workload.ModelWorkload;
 import java.io.IOException;
 import java.io.PrintWriter;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.List;
 import java.util.Map;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
@@ -37,13 +34,8 @@ final class EstimateCommand implements Callable<Integer> {
             description = "The frame rate that average power is taken at (default: frames back to back).")
     Double fps;
 
-    @Option(names = "--fail-on-unmodelled",
-            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
-    boolean failOnUnmodelled;
-
-    @Option(names = "--dim", paramLabel = "NAME=VALUE",
-            description = "Binds a symbolic input dim, e.g. --dim batch=1 (repeatable).")
-    List<String> dims = new ArrayList<>();
+    @CommandLine.Mixin
+    ModelOptions modelOptions = new ModelOptions();
 
     @Option(names = "--json", paramLabel = "FILE", description = "Also writes the estimate as JSON to FILE.")
     Path json;
@@ -57,13 +49,13 @@ final class EstimateCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Map<String, Long> bound = Options.dims(spec, dims);
+        Map<String, Long> bound = modelOptions.bound(spec);
         Options.positive(spec, "--fps", fps);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
         DeviceProfile profile = DeviceLoader.load(device, null);
-        ModelWorkload w = Analyzer.analyze(model, bound, new AnalysisOptions(failOnUnmodelled));
+        ModelWorkload w = Analyzer.analyze(model, bound, modelOptions.analysis());
         DeviceEstimate e = Estimator.estimate(w, profile);
         PrintWriter out = spec.commandLine().getOut();
         out.print(ConsoleReport.estimate(e, fps, top));
