@@ -31,3 +31,5 @@ if [ "$stale" = 1 ]; then
 else
   say "reusing $jar"
 fi
+# OnnxWriter, which writes the benchmark models, ships in the estimator's test-jar.
+testjar=$(ls estimator/target/erg-estimator-*-tests.jar 2>/dev/null | head -1)

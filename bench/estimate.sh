@@ -10,5 +10,6 @@ mkdir -p "$work/classes"
 if [ ! -f "$jar" ] || [ -n "$(find estimator/src/main cli/src/main -newer "$jar" -type f | head -1)" ]; then
   mvn -q -DskipTests package -pl cli -am
 fi
-javac -d "$work/classes" -cp "$jar" estimator/src/test/java/dev/erg/validation/ResNet50.java bench/src/EstimateOverhead.java
-java -cp "$jar:$work/classes" EstimateOverhead "$work" "${ROUNDS:-301}"
+testjar=$(ls estimator/target/erg-estimator-*-tests.jar 2>/dev/null | head -1)
+javac -d "$work/classes" -cp "$jar:$testjar" estimator/src/test/java/dev/erg/validation/ResNet50.java bench/src/EstimateOverhead.java
+java -cp "$jar:$testjar:$work/classes" EstimateOverhead "$work" "${ROUNDS:-301}"

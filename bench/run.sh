@@ -25,11 +25,11 @@ runs=${RUNS:-5}
 if [ ! -f "$work/classes/PlainRead.class" ] || [ ! -f "$work/classes/BenchModels.class" ] \
    || [ bench/src/PlainRead.java -nt "$work/classes/PlainRead.class" ] \
    || [ bench/src/BenchModels.java -nt "$work/classes/BenchModels.class" ] || [ "$jar" -nt "$work/classes/BenchModels.class" ]; then
-  javac -d "$work/classes" -cp "$jar" bench/src/BenchModels.java bench/src/PlainRead.java
+  javac -d "$work/classes" -cp "$jar:$testjar" bench/src/BenchModels.java bench/src/PlainRead.java
 fi
 if [ ! -f "$work/big.onnx" ] || [ ! -f "$work/small.onnx" ] || [ "$work/classes/BenchModels.class" -nt "$work/big.onnx" ]; then
   say "writing the models"
-  java -cp "$jar:$work/classes" BenchModels "$work" >&2
+  java -cp "$jar:$testjar:$work/classes" BenchModels "$work" >&2
 fi
 big="$work/big.onnx"
 small="$work/small.onnx"

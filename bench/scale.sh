@@ -30,7 +30,7 @@ budget_ms=${BUDGET_MS:-2000}
 if [ ! -f "$work/classes/ScaleModels.class" ] || [ ! -f "$work/classes/EstimateBench.class" ] \
    || [ bench/src/ScaleModels.java -nt "$work/classes/ScaleModels.class" ] \
    || [ bench/src/EstimateBench.java -nt "$work/classes/EstimateBench.class" ] || [ "$jar" -nt "$work/classes/ScaleModels.class" ]; then
-  javac -d "$work/classes" -cp "$jar" bench/src/ScaleModels.java bench/src/EstimateBench.java
+  javac -d "$work/classes" -cp "$jar:$testjar" bench/src/ScaleModels.java bench/src/EstimateBench.java
 fi
 for variant in scale scale_if; do
   missing=""
@@ -40,7 +40,7 @@ for variant in scale scale_if; do
   done
   if [ -n "$missing" ]; then
     say "writing the $variant models:$missing"
-    java -cp "$jar:$work/classes" ScaleModels "$work" $([ "$variant" = scale_if ] && echo --if) $missing >&2
+    java -cp "$jar:$testjar:$work/classes" ScaleModels "$work" $([ "$variant" = scale_if ] && echo --if) $missing >&2
   fi
 done
 
@@ -84,7 +84,7 @@ for ((i = 0; i < runs; i++)); do
   for n in $sizes; do
     measure "analyze_$n" java -jar "$jar" analyze "$work/scale_$n.onnx" --dim batch=1
     measure "analyze-if_$n" java -jar "$jar" analyze "$work/scale_if_$n.onnx" --dim batch=1
-    measure "estimate_$n" java -cp "$jar:$work/classes" EstimateBench "$work/scale_$n.onnx"
+    measure "estimate_$n" java -cp "$jar:$testjar:$work/classes" EstimateBench "$work/scale_$n.onnx"
   done
 done
 load_after=$(cut -d' ' -f1-3 /proc/loadavg)

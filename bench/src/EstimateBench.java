@@ -1,4 +1,4 @@
-import dev.erg.Analyzer;
+import dev.erg.analysis.Analyzer;
 import dev.erg.device.DeviceLoader;
 import dev.erg.device.DeviceProfile;
 import dev.erg.estimate.DeviceEstimate;

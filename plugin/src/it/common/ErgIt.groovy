@@ -4,7 +4,7 @@
 // expected messages are computed here by the library itself, from the same configuration the
 // project's pom gives the plugin, so every assertion on build.log is verbatim.
 
-import dev.erg.BadInputException
+import dev.erg.error.BadInputException
 import dev.erg.budget.Baseline
 import dev.erg.budget.Budget
 import dev.erg.budget.Gate

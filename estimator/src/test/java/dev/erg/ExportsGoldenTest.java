@@ -1,5 +1,7 @@
 package dev.erg;
 
+import dev.erg.analysis.AnalysisOptions;
+import dev.erg.analysis.Analyzer;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 

@@ -1,5 +1,6 @@
 package dev.erg;
 
+import dev.erg.analysis.Analyzer;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 

@@ -1,7 +1,7 @@
 package dev.erg.cli;
 
-import dev.erg.Analyzer;
-import dev.erg.BadInputException;
+import dev.erg.analysis.Analyzer;
+import dev.erg.error.BadInputException;
 import dev.erg.report.AnalysisJson;
 import dev.erg.report.AnalysisTable;
 import dev.erg.workload.ModelWorkload;

@@ -1,6 +1,6 @@
 package dev.erg.cli;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintWriter;

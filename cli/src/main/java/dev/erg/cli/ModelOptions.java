@@ -1,6 +1,6 @@
 package dev.erg.cli;
 
-import dev.erg.AnalysisOptions;
+import dev.erg.analysis.AnalysisOptions;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;

@@ -182,7 +182,7 @@ class AnalyzeCommandTest {
         assertEquals(3, code);
         assertEquals("erg: internal error: IllegalStateException: broken rule" + System.lineSeparator(), err.toString());
         err.getBuffer().setLength(0);
-        assertEquals(2, Main.failure(new dev.erg.BadInputException("m.onnx: bad"), new java.io.PrintWriter(err, true)));
+        assertEquals(2, Main.failure(new dev.erg.error.BadInputException("m.onnx: bad"), new java.io.PrintWriter(err, true)));
         assertEquals("erg: m.onnx: bad" + System.lineSeparator(), err.toString());
     }
 }

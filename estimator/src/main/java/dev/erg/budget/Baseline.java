@@ -6,7 +6,7 @@ import com.fasterxml.jackson.databind.ObjectMapper;
 import com.fasterxml.jackson.databind.SerializationFeature;
 import com.fasterxml.jackson.databind.node.ArrayNode;
 import com.fasterxml.jackson.databind.node.ObjectNode;
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.NodeEstimate;
 import java.io.IOException;

@@ -1,6 +1,6 @@
 package dev.erg.budget;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 
 /**
  * The limits one model must hold on every target device. Every limit is optional. Power is taken

@@ -1,7 +1,7 @@
 package dev.erg.budget;
 
-import dev.erg.AnalysisOptions;
-import dev.erg.Analyzer;
+import dev.erg.analysis.AnalysisOptions;
+import dev.erg.analysis.Analyzer;
 import dev.erg.device.DeviceProfile;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Estimator;

@@ -4,7 +4,7 @@ import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.device.ProfileTree.Node;
 import java.io.BufferedReader;
 import java.io.IOException;

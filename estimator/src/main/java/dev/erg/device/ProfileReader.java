@@ -3,7 +3,7 @@ package dev.erg.device;
 import static dev.erg.device.ProfileTree.clip;
 
 import com.fasterxml.jackson.core.JsonToken;
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;

@@ -4,7 +4,7 @@ import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.core.JsonToken;
 import com.fasterxml.jackson.dataformat.yaml.YAMLParser;
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import java.io.IOException;
 import java.util.ArrayList;
 import java.util.Collections;

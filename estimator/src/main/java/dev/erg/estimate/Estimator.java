@@ -1,6 +1,6 @@
 package dev.erg.estimate;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.device.Dataflow;
 import dev.erg.device.DeviceProfile;
 import dev.erg.device.Engine;

@@ -1,6 +1,6 @@
 package dev.erg.graph;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.onnx.AttributeDef;
 import dev.erg.onnx.GraphDef;
 import dev.erg.onnx.NodeDef;

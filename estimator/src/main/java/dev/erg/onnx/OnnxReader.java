@@ -2,7 +2,7 @@ package dev.erg.onnx;
 
 import com.google.protobuf.CodedInputStream;
 import com.google.protobuf.WireFormat;
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import java.io.FileInputStream;
 import java.io.IOException;
 import java.io.InputStream;

@@ -1,6 +1,6 @@
 package dev.erg.report;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.budget.GateResult;
 import dev.erg.budget.PairResult;
 import java.io.IOException;

@@ -1,6 +1,6 @@
 package dev.erg.workload;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.graph.Graph;
 import dev.erg.graph.Node;
 import dev.erg.graph.Value;

@@ -1,6 +1,6 @@
 package dev.erg.estimate;
 
-import dev.erg.Analyzer;
+import dev.erg.analysis.Analyzer;
 import dev.erg.onnx.ElemType;
 import dev.erg.onnx.OnnxWriter;
 import dev.erg.workload.ModelWorkload;

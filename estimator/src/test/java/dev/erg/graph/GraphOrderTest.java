@@ -4,7 +4,7 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.TestModels;
 import dev.erg.onnx.ElemType;
 import dev.erg.onnx.OnnxWriter;

@@ -4,8 +4,8 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 import static org.junit.jupiter.api.Assertions.fail;
 
-import dev.erg.Analyzer;
-import dev.erg.BadInputException;
+import dev.erg.analysis.Analyzer;
+import dev.erg.error.BadInputException;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.Arrays;

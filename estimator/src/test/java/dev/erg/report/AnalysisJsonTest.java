@@ -7,7 +7,7 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.fasterxml.jackson.databind.JsonNode;
 import com.fasterxml.jackson.databind.ObjectMapper;
-import dev.erg.Analyzer;
+import dev.erg.analysis.Analyzer;
 import dev.erg.workload.ModelWorkload;
 import java.io.IOException;
 import java.nio.charset.StandardCharsets;

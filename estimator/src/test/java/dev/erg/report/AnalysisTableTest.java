@@ -5,7 +5,7 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.erg.Analyzer;
+import dev.erg.analysis.Analyzer;
 import dev.erg.workload.ModelWorkload;
 import java.nio.file.Path;
 import java.util.Arrays;

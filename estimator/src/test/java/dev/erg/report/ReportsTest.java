@@ -6,7 +6,7 @@ import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Check;
 import dev.erg.budget.Gate;

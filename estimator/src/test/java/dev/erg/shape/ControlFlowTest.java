@@ -11,7 +11,7 @@ import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.graph.Graph;
 import dev.erg.graph.Node;
 import dev.erg.onnx.ElemType;

@@ -1,7 +1,7 @@
 package dev.erg.maven;
 
-import dev.erg.AnalysisOptions;
-import dev.erg.BadInputException;
+import dev.erg.analysis.AnalysisOptions;
+import dev.erg.error.BadInputException;
 import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Gate;

@@ -1,6 +1,6 @@
 package dev.erg.maven;
 
-import dev.erg.BadInputException;
+import dev.erg.error.BadInputException;
 import dev.erg.budget.Budget;
 import dev.erg.report.Reports;
 import java.io.File;

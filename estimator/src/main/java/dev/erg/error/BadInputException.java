@@ -1,4 +1,4 @@
-package dev.erg;
+package dev.erg.error;
 
 /**
  * Broken input or configuration: a model file, a profile or an option that erg cannot use.

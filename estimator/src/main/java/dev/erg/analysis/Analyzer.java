@@ -1,5 +1,6 @@
-package dev.erg;
+package dev.erg.analysis;
 
+import dev.erg.error.BadInputException;
 import dev.erg.graph.Graph;
 import dev.erg.graph.GraphBuilder;
 import dev.erg.onnx.OnnxModel;

@@ -1,4 +1,4 @@
-package dev.erg;
+package dev.erg.analysis;
 
 /**
  * Options of {@link Analyzer#analyze(java.nio.file.Path, java.util.Map, AnalysisOptions)}.
