@@ -5,14 +5,17 @@ import java.util.Map;
 import java.util.TreeMap;
 
 /**
- * A compute engine of a device: a rows x columns multiply-accumulate array, or a vector unit with
- * lanes. Energies are per operation at a named precision ("int8", "fp16"...); a precision that the
- * profile does not list is derived by {@link Precisions#scale}.
+ * A compute engine of a device: a rows x columns multiply-accumulate array, an array whose sums are
+ * formed in the analog domain, an in-memory compute macro, or a vector unit with lanes. Energies are
+ * per operation at a named precision ("int8", "fp16", "int1", "w4a8"...); a precision that the profile
+ * does not list is derived by {@link Precisions#scale}. The kind-specific parameters sit in
+ * {@link #binary()}, {@link #analog()} and {@link #macro()}.
  */
 public final class Engine {
     /** What kind of engine. */
     public enum Kind {
-        MAC_ARRAY("mac-array"), VECTOR("vector");
+        MAC_ARRAY("mac-array"), VECTOR("vector"), ANALOG_SUM_ARRAY("analog-sum-array"),
+        IN_MEMORY_MACRO("in-memory-macro");
 
         public final String key;
 
@@ -42,6 +45,52 @@ public final class Engine {
     private final double multiplyFraction;
     private final int accumulatorBits;
     private final long layerOverheadCycles;
+    private Binary binary;
+    private AnalogSum analog;
+    private Macro macro;
+
+    /**
+     * The energies of a 1-bit (+1/-1) MAC on a digital engine, in fJ: an XNOR gate per product plus the
+     * product's share of the popcount (the adder tree that counts the ones).
+     */
+    public record Binary(double xnorFj, double popcountFj) {
+    }
+
+    /**
+     * An analog accumulation array: products are formed digitally and summed as charge down a column of
+     * {@code rows}; each column sum is converted once per read-out, and sums longer than a column are
+     * added digitally. Energies in fJ.
+     */
+    public record AnalogSum(double accumulationFjPerProduct, double conversionFj, int converterBits,
+                            double partialAddFj) {
+    }
+
+    /**
+     * An in-memory compute macro: {@code rows x columns} cells holding {@code bitsPerCell} weight bits
+     * each, {@code count} macros, {@code rowsActive} rows driven at once, {@code inputBitsPerCycle} input
+     * bits applied per cycle. {@code weightBits} is the width weights are stored at when neither the model
+     * nor an override says otherwise (0: follow the model). Energies in fJ.
+     */
+    public record Macro(int bitsPerCell, int weightBits, int count, int rowsActive, int inputBitsPerCycle,
+                        double rowDriveFj, double columnFj, double conversionFj, int converterBits,
+                        double cellWriteFj, double shiftAddFj, double writeCyclesPerRow) {
+        /** Weight bits the macros hold in all. */
+        public long capacityBits(int rows, int columns) {
+            return (long) rows * columns * bitsPerCell * count;
+        }
+    }
+
+    /** An engine with kind-specific parameters (each may be null when the kind takes none). */
+    public static Engine of(String id, Kind kind, int rows, int columns, int lanes, Dataflow dataflow,
+                            Map<String, Double> energyFj, double multiplyFraction, int accumulatorBits,
+                            long layerOverheadCycles, Binary binary, AnalogSum analog, Macro macro) {
+        Engine e = new Engine(id, kind, rows, columns, lanes, dataflow, energyFj, multiplyFraction, accumulatorBits,
+                layerOverheadCycles);
+        e.binary = binary;
+        e.analog = analog;
+        e.macro = macro;
+        return e;
+    }
 
     public Engine(String id, Kind kind, int rows, int columns, int lanes, Dataflow dataflow,
                   Map<String, Double> energyFj, double multiplyFraction, int accumulatorBits, long layerOverheadCycles) {
@@ -73,9 +122,36 @@ public final class Engine {
         return columns;
     }
 
-    /** Parallel units: rows x columns for an array, lanes for a vector unit. */
+    /** Parallel units: rows x columns for an array, cells of every macro for a macro, lanes for a vector unit. */
     public long units() {
-        return kind == Kind.MAC_ARRAY ? (long) rows * columns : lanes;
+        switch (kind) {
+            case VECTOR:
+                return lanes;
+            case IN_MEMORY_MACRO:
+                return (long) rows * columns * macro.count();
+            default:
+                return (long) rows * columns;
+        }
+    }
+
+    /** True for the kinds that run MAC layers on a 2-D array (every kind but the vector unit). */
+    public boolean isArray() {
+        return kind != Kind.VECTOR;
+    }
+
+    /** The XNOR and popcount energies of a 1-bit MAC, or null when the profile gives none. */
+    public Binary binary() {
+        return binary;
+    }
+
+    /** The analog accumulation parameters of an analog-sum-array, else null. */
+    public AnalogSum analog() {
+        return analog;
+    }
+
+    /** The macro parameters of an in-memory-macro, else null. */
+    public Macro macro() {
+        return macro;
     }
 
     public int lanes() {
@@ -87,7 +163,10 @@ public final class Engine {
         return dataflow;
     }
 
-    /** Energy per operation (a MAC for an array, an op for a vector unit) by precision, in fJ, as listed. */
+    /**
+     * Energy per operation by precision, in fJ, as listed: a MAC for a mac-array, a multiply for an
+     * analog-sum-array, an op for a vector unit; empty for an in-memory macro (priced per event).
+     */
     public Map<String, Double> energyFj() {
         return energyFj;
     }

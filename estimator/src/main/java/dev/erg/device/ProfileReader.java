@@ -22,28 +22,11 @@ import java.util.regex.Pattern;
 /**
  * Turns a profile document tree into a {@link DeviceProfile}, strictly: every key must be known,
  * every number must carry its unit in the key name and lie in range. The first fault ends the read
- * with one line naming the file, the line and the key path.
+ * with one line naming the file, the line and the key path. Engines are read by {@link EngineReader}.
  */
-final class ProfileReader {
-    /** Precision labels a profile may price: the numeric element types, as erg names them. */
-    static final Set<String> PRECISIONS;
-
-    static {
-        Set<String> p = new TreeSet<>();
-        for (ElemType t : ElemType.values()) {
-            if ((t.isFloat() || t.isInteger()) && t != ElemType.BOOL) {
-                p.add(t.label);
-            }
-        }
-        PRECISIONS = Collections.unmodifiableSet(p);
-    }
-
+final class ProfileReader extends ProfileFields {
     static final List<String> ROOT_KEYS = List.of("$schema", "name", "description", "clock-mhz", "static-power-mw",
             "deploy-precision", "engines", "memories", "sources");
-    static final List<String> MAC_ARRAY_KEYS = List.of("id", "kind", "rows", "columns", "dataflow", "mac-energy-fj",
-            "mac-energy-pj", "multiply-fraction", "accumulator-bits", "layer-overhead-cycles");
-    static final List<String> VECTOR_KEYS = List.of("id", "kind", "lanes", "op-energy-fj", "op-energy-pj",
-            "multiply-fraction", "layer-overhead-cycles");
     static final List<String> REGISTER_KEYS = List.of("id", "level", "read-energy-fj-per-byte",
             "read-energy-pj-per-byte", "write-energy-fj-per-byte", "write-energy-pj-per-byte");
     static final List<String> SRAM_KEYS = List.of("id", "level", "capacity-kib", "capacity-mib", "capacity-bytes",
@@ -61,86 +44,8 @@ final class ProfileReader {
         ANY_MEMORY_KEYS = Collections.unmodifiableSet(all);
     }
 
-    /** Keys written without a unit (or with a unit erg does not take) and the keys to write instead. */
-    private static final Map<String, List<String>> UNIT_STEMS = new LinkedHashMap<>();
-
-    static {
-        UNIT_STEMS.put("clock", List.of("clock-mhz"));
-        UNIT_STEMS.put("static-power", List.of("static-power-mw"));
-        UNIT_STEMS.put("mac-energy", List.of("mac-energy-fj", "mac-energy-pj"));
-        UNIT_STEMS.put("op-energy", List.of("op-energy-fj", "op-energy-pj"));
-        UNIT_STEMS.put("capacity", List.of("capacity-kib", "capacity-mib", "capacity-bytes"));
-        UNIT_STEMS.put("read-energy", List.of("read-energy-fj-per-byte", "read-energy-pj-per-byte"));
-        UNIT_STEMS.put("write-energy", List.of("write-energy-fj-per-byte", "write-energy-pj-per-byte"));
-        UNIT_STEMS.put("bandwidth", List.of("bytes-per-cycle", "gbytes-per-second"));
-    }
-
-    /** Plain decimal numbers (JSON's grammar): no hex, octal, underscores, .inf or .nan. */
-    private static final Pattern DECIMAL = Pattern.compile("-?(0|[1-9][0-9]*)(\\.[0-9]*)?([eE][-+]?[0-9]+)?");
-    private static final Pattern ID = Pattern.compile("[A-Za-z0-9][A-Za-z0-9._-]{0,63}");
-    /** Upper bound for rows, columns and lanes: far above any real array, far below overflow. */
-    static final int MAX_UNITS_SIDE = 65536;
-
-    private final String label;
-
     ProfileReader(String label) {
-        this.label = label;
-    }
-
-    /** A mapping node with its key path. */
-    private final class Obj {
-        final Node node;
-        final String path;
-
-        Obj(Node node, String path) {
-            this.node = node;
-            this.path = path;
-        }
-
-        Entry get(String key) {
-            return node.map.get(key);
-        }
-
-        String sub(String key) {
-            return path.isEmpty() ? key : path + "." + key;
-        }
-
-        /** Rejects the first key not in {@code known}, with a hint when only the unit is wrong. */
-        void checkKeys(List<String> known, Set<String> otherPlace, String otherWhat) {
-            for (Entry e : node.map.values()) {
-                if (known.contains(e.key)) {
-                    continue;
-                }
-                for (Map.Entry<String, List<String>> stem : UNIT_STEMS.entrySet()) {
-                    String s = stem.getKey();
-                    List<String> instead = new ArrayList<>(stem.getValue());
-                    instead.retainAll(known);
-                    if (instead.isEmpty() || !(e.key.equals(s) || e.key.startsWith(s + "-"))) {
-                        continue;
-                    }
-                    String rest = e.key.substring(s.length());
-                    String what = rest.isEmpty() || rest.equals("-per-byte") || rest.equals("-per-second")
-                            ? "no unit" : "unknown unit";
-                    throw fail(e.line, sub(e.key), what + "; write " + orList(instead));
-                }
-                if (otherPlace != null && otherPlace.contains(e.key)) {
-                    throw fail(e.line, sub(e.key), "not used " + otherWhat + " (known: " + String.join(", ", known)
-                            + ")");
-                }
-                throw fail(e.line, sub(e.key), "unknown key (known: " + String.join(", ", known) + ")");
-            }
-        }
-    }
-
-    private BadInputException fail(int line, String path, String what) {
-        return new BadInputException(ProfileTree.at(label, line, path, what));
-    }
-
-    private static String orList(List<String> keys) {
-        if (keys.size() == 1) {
-            return keys.get(0);
-        }
-        return String.join(", ", keys.subList(0, keys.size() - 1)) + " or " + keys.get(keys.size() - 1);
+        super(label);
     }
 
     DeviceProfile read(String id, Node root) {
@@ -165,113 +70,16 @@ final class ProfileReader {
         if (top.get("deploy-precision") != null) {
             Entry e = top.get("deploy-precision");
             deploy = text(top, "deploy-precision");
-            if (!PRECISIONS.contains(deploy)) {
+            if (!Precisions.isLabel(deploy, PRECISIONS) || deploy.startsWith("w")) {
                 throw fail(e.value.line, top.sub(e.key), "unknown precision label \"" + clip(deploy) + "\" (known: "
-                        + String.join(", ", PRECISIONS) + ")");
+                        + String.join(", ", PRECISIONS) + ", int1 to int64, uint1 to uint64)");
             }
         }
-        List<Engine> engines = engines(top);
+        List<Engine> engines = new EngineReader(label).engines(top);
         Memory[] levels = memories(top);
         Map<String, String> sources = sources(top, root);
         return new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], levels[2], staticMw,
                 deploy, sources);
-    }
-
-    // ---- engines ----
-
-    private List<Engine> engines(Obj top) {
-        Entry list = requireEntry(top, "engines", "a profile needs name, clock-mhz, engines and memories");
-        if (list.value.type != Type.LIST) {
-            throw fail(list.value.line, "engines", "must be a list of engines (got " + list.value.describe() + ")");
-        }
-        if (list.value.list.isEmpty()) {
-            throw fail(list.value.line, "engines", "must list at least one engine");
-        }
-        List<Engine> out = new ArrayList<>();
-        Map<String, String> ids = new HashMap<>();
-        for (int i = 0; i < list.value.list.size(); i++) {
-            Node n = list.value.list.get(i);
-            String path = "engines[" + i + "]";
-            if (n.type != Type.MAP) {
-                throw fail(n.line, path, "must be a mapping of engine keys (got " + n.describe() + ")");
-            }
-            Obj o = new Obj(n, path);
-            String id = id(o);
-            String clash = ids.putIfAbsent(id, path);
-            if (clash != null) {
-                throw fail(o.get("id").value.line, o.sub("id"), "duplicate id \"" + id + "\" (also " + clash + ")");
-            }
-            Entry kindEntry = requireEntry(o, "kind", "an engine needs id and kind (mac-array or vector)");
-            String kind = text(o, "kind");
-            if (kind.equals(Engine.Kind.MAC_ARRAY.key)) {
-                out.add(macArray(o, id));
-            } else if (kind.equals(Engine.Kind.VECTOR.key)) {
-                out.add(vector(o, id));
-            } else {
-                throw fail(kindEntry.value.line, o.sub("kind"), "unknown kind \"" + clip(kind)
-                        + "\" (known: mac-array, vector)");
-            }
-        }
-        return out;
-    }
-
-    private Engine macArray(Obj o, String id) {
-        o.checkKeys(MAC_ARRAY_KEYS, Set.copyOf(VECTOR_KEYS), "by a mac-array engine");
-        String needs = "a mac-array needs rows, columns, dataflow and mac-energy-fj or mac-energy-pj";
-        int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
-        int columns = (int) whole(o, requireEntry(o, "columns", needs), 1, MAX_UNITS_SIDE);
-        Entry df = requireEntry(o, "dataflow", needs);
-        String dfText = text(o, "dataflow");
-        Dataflow dataflow = Dataflow.ofKey(dfText);
-        if (dataflow == null) {
-            throw fail(df.value.line, o.sub("dataflow"), "unknown dataflow \"" + clip(dfText)
-                    + "\" (known: weight-stationary, output-stationary, no-reuse)");
-        }
-        Map<String, Double> energy = energyTable(o, "mac-energy");
-        double mulFraction = o.get("multiply-fraction") != null
-                ? fraction(o, o.get("multiply-fraction")) : Engine.DEFAULT_MAC_MULTIPLY_FRACTION;
-        int accBits = o.get("accumulator-bits") != null
-                ? (int) whole(o, o.get("accumulator-bits"), 1, 64) : Engine.DEFAULT_ACCUMULATOR_BITS;
-        long overhead = o.get("layer-overhead-cycles") != null
-                ? whole(o, o.get("layer-overhead-cycles"), 0, 1L << 40) : (long) rows + columns;
-        return new Engine(id, Engine.Kind.MAC_ARRAY, rows, columns, 0, dataflow, energy, mulFraction, accBits,
-                overhead);
-    }
-
-    private Engine vector(Obj o, String id) {
-        o.checkKeys(VECTOR_KEYS, Set.copyOf(MAC_ARRAY_KEYS), "by a vector engine");
-        String needs = "a vector engine needs lanes and op-energy-fj or op-energy-pj";
-        int lanes = (int) whole(o, requireEntry(o, "lanes", needs), 1, MAX_UNITS_SIDE);
-        Map<String, Double> energy = energyTable(o, "op-energy");
-        double mulFraction = o.get("multiply-fraction") != null
-                ? fraction(o, o.get("multiply-fraction")) : Engine.DEFAULT_VECTOR_MULTIPLY_FRACTION;
-        long overhead = o.get("layer-overhead-cycles") != null
-                ? whole(o, o.get("layer-overhead-cycles"), 0, 1L << 40) : 0;
-        return new Engine(id, Engine.Kind.VECTOR, 0, 0, lanes, null, energy, mulFraction, 0, overhead);
-    }
-
-    /** A precision -> energy table from {@code stem-fj} or {@code stem-pj}, in fJ. */
-    private Map<String, Double> energyTable(Obj o, String stem) {
-        Entry e = oneOf(o, stem + "-fj", stem + "-pj", true);
-        double factor = e.key.endsWith("-pj") ? 1000 : 1;
-        String path = o.sub(e.key);
-        if (e.value.type != Type.MAP) {
-            throw fail(e.value.line, path, "must be a mapping of precision to energy, e.g. { int8: 150 } (got "
-                    + e.value.describe() + ")");
-        }
-        if (e.value.map.isEmpty()) {
-            throw fail(e.value.line, path, "lists no precision; give at least one, e.g. { int8: 150 }");
-        }
-        Obj table = new Obj(e.value, path);
-        Map<String, Double> out = new LinkedHashMap<>();
-        for (Entry p : e.value.map.values()) {
-            if (!PRECISIONS.contains(p.key)) {
-                throw fail(p.line, table.sub(p.key), "unknown precision label (known: "
-                        + String.join(", ", PRECISIONS) + ")");
-            }
-            out.put(p.key, nonNegative(table, p) * factor);
-        }
-        return out;
     }
 
     // ---- memories ----
@@ -442,125 +250,5 @@ final class ProfileReader {
                 collectPaths(n.list.get(i), p, out);
             }
         }
-    }
-
-    // ---- scalars ----
-
-    private Entry requireEntry(Obj o, String key, String needs) {
-        Entry e = o.get(key);
-        if (e == null) {
-            throw fail(o.node.line, o.sub(key), "missing (" + needs + ")");
-        }
-        return e;
-    }
-
-    /** Exactly one of two unit forms of the same value (or none, when not required). */
-    private Entry oneOf(Obj o, String a, String b, boolean required) {
-        Entry ea = o.get(a);
-        Entry eb = o.get(b);
-        if (ea != null && eb != null) {
-            Entry later = ea.line > eb.line ? ea : eb;
-            Entry earlier = later == ea ? eb : ea;
-            throw fail(later.line, o.sub(later.key), "give " + a + " or " + b + ", not both (" + earlier.key
-                    + " is on line " + earlier.line + ")");
-        }
-        if (ea == null && eb == null && required) {
-            throw fail(o.node.line, o.sub(a), "missing (give " + a + " or " + b + ")");
-        }
-        return ea != null ? ea : eb;
-    }
-
-    private String requireText(Obj o, String key, String needs) {
-        requireEntry(o, key, needs);
-        String t = text(o, key);
-        if (t.isBlank()) {
-            throw fail(o.get(key).value.line, o.sub(key), "must not be empty");
-        }
-        return t;
-    }
-
-    /** A string value (YAML reads {@code name: 2024} or {@code name: yes} as no string: quote it). */
-    private String text(Obj o, String key) {
-        Entry e = o.get(key);
-        Node v = e.value;
-        if (v.type != Type.SCALAR || v.token != JsonToken.VALUE_STRING) {
-            boolean quotable = v.type == Type.SCALAR && !v.isNull();
-            throw fail(v.line, o.sub(key), "must be text (got " + v.describe() + (quotable ? "; put it in quotes" : "")
-                    + ")");
-        }
-        if (!key.equals("description") && (v.text.indexOf('\n') >= 0 || v.text.indexOf('\r') >= 0)) {
-            throw fail(v.line, o.sub(key), "must be one line");
-        }
-        return v.text;
-    }
-
-    private String id(Obj o) {
-        Entry e = requireEntry(o, "id", o.path.startsWith("engines") ? "an engine needs id and kind (mac-array or "
-                + "vector)" : "a memory level needs an id (registers, sram, dram or any name with a level: key)");
-        String id = text(o, "id");
-        if (!ID.matcher(id).matches()) {
-            throw fail(e.value.line, o.sub("id"), "must be 1 to 64 letters, digits, '.', '_' or '-', starting with a "
-                    + "letter or digit (got \"" + clip(id) + "\")");
-        }
-        return id;
-    }
-
-    private double number(Obj o, Entry e) {
-        Node v = e.value;
-        String path = o.sub(e.key);
-        if (!v.isNumber()) {
-            boolean quoted = v.type == Type.SCALAR && v.token == JsonToken.VALUE_STRING
-                    && DECIMAL.matcher(v.text.strip()).matches();
-            throw fail(v.line, path, "must be a number (got " + v.describe() + (quoted ? "; write it without quotes" : "")
-                    + ")");
-        }
-        if (!DECIMAL.matcher(v.text).matches()) {
-            throw fail(v.line, path, "must be a plain decimal number (got " + clip(v.text) + ")");
-        }
-        double d = Double.parseDouble(v.text);
-        if (!Double.isFinite(d)) {
-            throw fail(v.line, path, "must be a finite number (got " + clip(v.text) + ")");
-        }
-        return d;
-    }
-
-    private double positive(Obj o, Entry e) {
-        double d = number(o, e);
-        if (!(d > 0)) {
-            throw fail(e.value.line, o.sub(e.key), "must be greater than 0 (got " + e.value.text + ")");
-        }
-        return d;
-    }
-
-    private double nonNegative(Obj o, Entry e) {
-        double d = number(o, e);
-        if (d < 0) {
-            throw fail(e.value.line, o.sub(e.key), "must not be negative (got " + e.value.text + ")");
-        }
-        return d + 0.0; // -0 becomes 0
-    }
-
-    private double fraction(Obj o, Entry e) {
-        double d = number(o, e);
-        if (d < 0 || d > 1) {
-            throw fail(e.value.line, o.sub(e.key), "must be from 0 to 1 (got " + e.value.text + ")");
-        }
-        return d + 0.0;
-    }
-
-    private long whole(Obj o, Entry e, long min, long max) {
-        double d = number(o, e);
-        String path = o.sub(e.key);
-        if (d != Math.rint(d)) {
-            throw fail(e.value.line, path, "must be a whole number (got " + e.value.text + ")");
-        }
-        if (d < min) {
-            throw fail(e.value.line, path, (min == 1 ? "must be greater than 0" : "must be at least " + min)
-                    + " (got " + e.value.text + ")");
-        }
-        if (d > max) {
-            throw fail(e.value.line, path, "must be at most " + max + " (got " + clip(e.value.text) + ")");
-        }
-        return (long) d;
     }
 }

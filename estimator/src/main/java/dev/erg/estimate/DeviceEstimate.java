@@ -17,11 +17,12 @@ public final class DeviceEstimate {
     private final long activationPeakBytes;
     private final long dramBytesPerFrame;
     private final List<String> assumptions;
+    private final boolean weightsReloadedEachFrame;
 
     DeviceEstimate(ModelWorkload workload, DeviceProfile device, List<NodeEstimate> nodes, Energy energy,
                    double latencySeconds, boolean weightsResident, long residentWeightBytes, long weightBytes,
                    long activationPeakBytes,
-                   long dramBytesPerFrame, List<String> assumptions) {
+                   long dramBytesPerFrame, List<String> assumptions, boolean weightsReloadedEachFrame) {
         this.workload = workload;
         this.device = device;
         this.nodes = List.copyOf(nodes);
@@ -33,6 +34,43 @@ public final class DeviceEstimate {
         this.activationPeakBytes = activationPeakBytes;
         this.dramBytesPerFrame = dramBytesPerFrame;
         this.assumptions = List.copyOf(assumptions);
+        this.weightsReloadedEachFrame = weightsReloadedEachFrame;
+    }
+
+    /**
+     * True when an in-memory macro cannot hold every layer's weights, so they are read from DRAM and
+     * written into its cells every frame (each such node says so in {@link NodeEstimate#weightsReloaded()}).
+     */
+    public boolean weightsReloadedEachFrame() {
+        return weightsReloadedEachFrame;
+    }
+
+    /** Energy per MAC of the frame in joules (total energy over MACs); 0 for a model without MACs. */
+    public double energyPerMacJoules() {
+        long macs = workload.macs();
+        return macs == 0 ? 0 : energy.total() / macs;
+    }
+
+    /**
+     * Operations per second per watt over the frame, counting two operations (multiply and add) per MAC,
+     * as the trade quotes TOPS/W: 2 x MACs / frame energy.
+     */
+    public double opsPerWatt() {
+        double j = energy.total();
+        return j == 0 ? 0 : 2.0 * workload.macs() / j;
+    }
+
+    /** MAC-weighted utilisation of the MAC nodes: total MACs over the sum of MACs / utilisation. */
+    public double macUtilization() {
+        double busy = 0;
+        long macs = 0;
+        for (NodeEstimate n : nodes) {
+            if (n.work().macs() > 0 && n.utilization() > 0) {
+                busy += n.work().macs() / n.utilization();
+                macs += n.work().macs();
+            }
+        }
+        return busy == 0 ? 0 : macs / busy;
     }
 
     public ModelWorkload workload() {

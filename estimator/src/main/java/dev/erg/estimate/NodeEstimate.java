@@ -30,6 +30,19 @@ public final class NodeEstimate {
     String fusedInto;
     String tiling;
     boolean priced;
+    DeployedPrecision deployed;
+    long passes;
+    long conversions;
+    long partialAdds;
+    long columnOps;
+    long rowDrives;
+    long cellWrites;
+    boolean weightsReloaded;
+    /** True when the weight width comes from an override or an engine default, not the tensor's type. */
+    boolean weightBitsSet;
+    /** The node as its engine sees it (MAC nodes), and the model that maps and prices it. */
+    MacJob job;
+    EngineModel macModel;
 
     NodeEstimate(NodeWork work) {
         this.work = work;
@@ -48,16 +61,65 @@ public final class NodeEstimate {
         return engine;
     }
 
-    /** The precision the node is priced at (the deployed precision when the profile sets one). */
+    /**
+     * The precision label the node's operations are priced at ("int8", "fp16", "int1", or "w4a8" when
+     * integer weights and activations differ); the deployed precision when the profile or an override sets one.
+     */
     public String precision() {
         return precision;
+    }
+
+    /** The deployed precision (weight and activation bits and where each came from), or null when not priced. */
+    public DeployedPrecision deployed() {
+        return deployed;
+    }
+
+    /**
+     * Tiles the layer is folded into on its engine: row folds x column folds x groups for an array,
+     * macro loads for an in-memory macro (1 x 1 conv with 512 inputs on 256 rows: 2).
+     */
+    public long passes() {
+        return passes;
+    }
+
+    /** Analog-to-digital conversions (column read-outs) of an analog-sum array or in-memory macro. */
+    public long conversions() {
+        return conversions;
+    }
+
+    /** Digital additions of read-outs: partial sums of an analog array, shift-and-add of a macro. */
+    public long partialAdds() {
+        return partialAdds;
+    }
+
+    /** Column operations of an in-memory macro (columns read, per row group and input bit). */
+    public long columnOps() {
+        return columnOps;
+    }
+
+    /** Row activations of an in-memory macro (rows driven, per input bit). */
+    public long rowDrives() {
+        return rowDrives;
+    }
+
+    /** Cells written per frame: weights that do not stay in an in-memory macro. */
+    public long cellWrites() {
+        return cellWrites;
+    }
+
+    /** True when an in-memory macro rewrites this layer's weights every frame (they do not all fit). */
+    public boolean weightsReloaded() {
+        return weightsReloaded;
     }
 
     public long computeCycles() {
         return computeCycles;
     }
 
-    /** MACs over (compute cycles x units) for a MAC node; 0 otherwise. */
+    /**
+     * The fraction of the engine doing useful work per cycle, for a MAC node (0 otherwise): MACs over
+     * (compute cycles x units) for an array, useful cells over (cycles x cells) for an in-memory macro.
+     */
     public double utilization() {
         return utilization;
     }

@@ -19,6 +19,7 @@ public final class NodeWork {
     private final long outputBytes;
     private final String precision;
     private final String weightPrecision;
+    private final String activationPrecision;
     private final int precisionBits;
     private final long gemmM;
     private final long gemmK;
@@ -37,6 +38,7 @@ public final class NodeWork {
         this.outputBytes = b.outputBytes;
         this.precision = b.precision;
         this.weightPrecision = b.weightPrecision;
+        this.activationPrecision = b.activationPrecision;
         this.precisionBits = b.precisionBits;
         this.gemmM = b.gemmM;
         this.gemmK = b.gemmK;
@@ -95,6 +97,14 @@ public final class NodeWork {
         return weightPrecision;
     }
 
+    /**
+     * The activation operand's precision label as the model stores it (through DequantizeLinear to its
+     * integers), or null when unknown.
+     */
+    public String activationPrecision() {
+        return activationPrecision;
+    }
+
     /** Bit width of {@link #precision()}. */
     public int precisionBits() {
         return precisionBits;
@@ -137,6 +147,7 @@ public final class NodeWork {
         long outputBytes;
         String precision;
         String weightPrecision;
+        String activationPrecision;
         int precisionBits;
         long gemmM;
         long gemmK;

@@ -279,6 +279,7 @@ public final class WorkloadCounter {
         b.precision = p == null ? "unknown" : p.label;
         b.precisionBits = p == null ? 0 : p.bits;
         b.weightPrecision = wt == null ? null : wt.label;
+        b.activationPrecision = act == null ? null : act.label;
     }
 
     /**

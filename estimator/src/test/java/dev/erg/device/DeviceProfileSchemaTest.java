@@ -102,7 +102,7 @@ class DeviceProfileSchemaTest {
             Arguments.of("no mac energy", DeviceLoaderErrorsTest.replace(9)),
             Arguments.of("unknown dataflow", DeviceLoaderErrorsTest.replace(8, "    dataflow: row-stationary")),
             Arguments.of("unknown kind", DeviceLoaderErrorsTest.replace(11, "    kind: gpu")),
-            Arguments.of("unknown precision", DeviceLoaderErrorsTest.replace(13, "    op-energy-fj: { int7: 30 }")),
+            Arguments.of("unknown precision", DeviceLoaderErrorsTest.replace(13, "    op-energy-fj: { int99: 30 }")),
             Arguments.of("missing name", DeviceLoaderErrorsTest.replace(1)),
             Arguments.of("no sram", DeviceLoaderErrorsTest.delete(15, 18)),
             Arguments.of("two sram levels",

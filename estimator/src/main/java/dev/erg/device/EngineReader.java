@@ -1,0 +1,188 @@
+package dev.erg.device;
+
+import static dev.erg.device.ProfileTree.clip;
+
+import com.fasterxml.jackson.core.JsonToken;
+import dev.erg.error.BadInputException;
+import dev.erg.device.ProfileTree.Entry;
+import dev.erg.device.ProfileTree.Node;
+import dev.erg.device.ProfileTree.Type;
+import dev.erg.onnx.ElemType;
+import java.util.ArrayList;
+import java.util.Collections;
+import java.util.HashMap;
+import java.util.LinkedHashMap;
+import java.util.LinkedHashSet;
+import java.util.List;
+import java.util.Map;
+import java.util.Set;
+import java.util.TreeSet;
+import java.util.regex.Pattern;
+
+/** Reads the engines of a profile, one method per kind (docs/profiles.md, "Engines"). */
+final class EngineReader extends ProfileFields {
+    static final List<String> MAC_ARRAY_KEYS = List.of("id", "kind", "rows", "columns", "dataflow", "mac-energy-fj",
+            "mac-energy-pj", "multiply-fraction", "accumulator-bits", "layer-overhead-cycles", "xnor-energy-fj",
+            "popcount-energy-fj");
+    static final List<String> VECTOR_KEYS = List.of("id", "kind", "lanes", "op-energy-fj", "op-energy-pj",
+            "multiply-fraction", "layer-overhead-cycles");
+    static final List<String> ANALOG_KEYS = List.of("id", "kind", "rows", "columns", "multiply-energy-fj",
+            "multiply-energy-pj", "multiply-fraction", "accumulation-energy-fj", "conversion-energy-fj",
+            "converter-bits", "partial-add-energy-fj", "accumulator-bits", "layer-overhead-cycles");
+    static final List<String> MACRO_KEYS = List.of("id", "kind", "rows", "columns", "macros", "bits-per-cell",
+            "weight-bits", "rows-active", "input-bits-per-cycle", "row-drive-energy-fj", "column-energy-fj",
+            "conversion-energy-fj", "converter-bits", "cell-write-energy-fj", "shift-add-energy-fj",
+            "write-cycles-per-row", "accumulator-bits", "layer-overhead-cycles");
+    /** Every engine key of any kind, to tell "wrong kind" from "unknown". */
+    private static final Set<String> ANY_ENGINE_KEYS;
+
+    static {
+        Set<String> all = new LinkedHashSet<>(MAC_ARRAY_KEYS);
+        all.addAll(VECTOR_KEYS);
+        all.addAll(ANALOG_KEYS);
+        all.addAll(MACRO_KEYS);
+        ANY_ENGINE_KEYS = Collections.unmodifiableSet(all);
+    }
+
+    static final String KINDS = "mac-array, vector, analog-sum-array, in-memory-macro";
+    /** Upper bound for rows, columns and lanes: far above any real array, far below overflow. */
+    static final int MAX_UNITS_SIDE = 65536;
+
+    EngineReader(String label) {
+        super(label);
+    }
+
+    List<Engine> engines(Obj top) {
+        Entry list = requireEntry(top, "engines", "a profile needs name, clock-mhz, engines and memories");
+        if (list.value.type != Type.LIST) {
+            throw fail(list.value.line, "engines", "must be a list of engines (got " + list.value.describe() + ")");
+        }
+        if (list.value.list.isEmpty()) {
+            throw fail(list.value.line, "engines", "must list at least one engine");
+        }
+        List<Engine> out = new ArrayList<>();
+        Map<String, String> ids = new HashMap<>();
+        for (int i = 0; i < list.value.list.size(); i++) {
+            Node n = list.value.list.get(i);
+            String path = "engines[" + i + "]";
+            if (n.type != Type.MAP) {
+                throw fail(n.line, path, "must be a mapping of engine keys (got " + n.describe() + ")");
+            }
+            Obj o = new Obj(n, path);
+            String id = id(o);
+            String clash = ids.putIfAbsent(id, path);
+            if (clash != null) {
+                throw fail(o.get("id").value.line, o.sub("id"), "duplicate id \"" + id + "\" (also " + clash + ")");
+            }
+            Entry kindEntry = requireEntry(o, "kind", "an engine needs id and kind (" + KINDS + ")");
+            String kind = text(o, "kind");
+            if (kind.equals(Engine.Kind.MAC_ARRAY.key)) {
+                out.add(macArray(o, id));
+            } else if (kind.equals(Engine.Kind.VECTOR.key)) {
+                out.add(vector(o, id));
+            } else if (kind.equals(Engine.Kind.ANALOG_SUM_ARRAY.key)) {
+                out.add(analog(o, id));
+            } else if (kind.equals(Engine.Kind.IN_MEMORY_MACRO.key)) {
+                out.add(macro(o, id));
+            } else {
+                throw fail(kindEntry.value.line, o.sub("kind"), "unknown kind \"" + clip(kind) + "\" (known: " + KINDS
+                        + ")");
+            }
+        }
+        return out;
+    }
+
+    private Engine macArray(Obj o, String id) {
+        o.checkKeys(MAC_ARRAY_KEYS, ANY_ENGINE_KEYS, "by a mac-array engine");
+        String needs = "a mac-array needs rows, columns, dataflow and mac-energy-fj or mac-energy-pj";
+        int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
+        int columns = (int) whole(o, requireEntry(o, "columns", needs), 1, MAX_UNITS_SIDE);
+        Entry df = requireEntry(o, "dataflow", needs);
+        String dfText = text(o, "dataflow");
+        Dataflow dataflow = Dataflow.ofKey(dfText);
+        if (dataflow == null) {
+            throw fail(df.value.line, o.sub("dataflow"), "unknown dataflow \"" + clip(dfText)
+                    + "\" (known: weight-stationary, output-stationary, no-reuse)");
+        }
+        Map<String, Double> energy = energyTable(o, "mac-energy");
+        double mulFraction = o.get("multiply-fraction") != null
+                ? fraction(o, o.get("multiply-fraction")) : Engine.DEFAULT_MAC_MULTIPLY_FRACTION;
+        int accBits = accumulatorBits(o);
+        long overhead = overhead(o, (long) rows + columns);
+        Engine.Binary binary = null;
+        Entry xnor = o.get("xnor-energy-fj");
+        Entry pop = o.get("popcount-energy-fj");
+        if (xnor != null || pop != null) {
+            if (xnor == null || pop == null) {
+                Entry given = xnor != null ? xnor : pop;
+                throw fail(given.line, o.sub(xnor == null ? "xnor-energy-fj" : "popcount-energy-fj"),
+                        "missing (a 1-bit MAC is priced from xnor-energy-fj and popcount-energy-fj together)");
+            }
+            binary = new Engine.Binary(nonNegative(o, xnor), nonNegative(o, pop));
+        }
+        return Engine.of(id, Engine.Kind.MAC_ARRAY, rows, columns, 0, dataflow, energy, mulFraction, accBits,
+                overhead, binary, null, null);
+    }
+
+    private Engine vector(Obj o, String id) {
+        o.checkKeys(VECTOR_KEYS, ANY_ENGINE_KEYS, "by a vector engine");
+        String needs = "a vector engine needs lanes and op-energy-fj or op-energy-pj";
+        int lanes = (int) whole(o, requireEntry(o, "lanes", needs), 1, MAX_UNITS_SIDE);
+        Map<String, Double> energy = energyTable(o, "op-energy");
+        double mulFraction = o.get("multiply-fraction") != null
+                ? fraction(o, o.get("multiply-fraction")) : Engine.DEFAULT_VECTOR_MULTIPLY_FRACTION;
+        long overhead = overhead(o, 0);
+        return new Engine(id, Engine.Kind.VECTOR, 0, 0, lanes, null, energy, mulFraction, 0, overhead);
+    }
+
+    private Engine analog(Obj o, String id) {
+        o.checkKeys(ANALOG_KEYS, ANY_ENGINE_KEYS, "by an analog-sum-array engine");
+        String needs = "an analog-sum-array needs rows, columns, multiply-energy-fj or multiply-energy-pj, "
+                + "accumulation-energy-fj, conversion-energy-fj, converter-bits and partial-add-energy-fj";
+        int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
+        int columns = (int) whole(o, requireEntry(o, "columns", needs), 1, MAX_UNITS_SIDE);
+        Map<String, Double> energy = energyTable(o, "multiply-energy");
+        double mulFraction = o.get("multiply-fraction") != null ? fraction(o, o.get("multiply-fraction")) : 1;
+        double acc = nonNegative(o, requireEntry(o, "accumulation-energy-fj", needs));
+        double conv = nonNegative(o, requireEntry(o, "conversion-energy-fj", needs));
+        int convBits = (int) whole(o, requireEntry(o, "converter-bits", needs), 1, 32);
+        double add = nonNegative(o, requireEntry(o, "partial-add-energy-fj", needs));
+        return Engine.of(id, Engine.Kind.ANALOG_SUM_ARRAY, rows, columns, 0, Dataflow.WEIGHT_STATIONARY, energy,
+                mulFraction, accumulatorBits(o), overhead(o, (long) rows + columns), null,
+                new Engine.AnalogSum(acc, conv, convBits, add), null);
+    }
+
+    private Engine macro(Obj o, String id) {
+        o.checkKeys(MACRO_KEYS, ANY_ENGINE_KEYS, "by an in-memory-macro engine");
+        String needs = "an in-memory-macro needs rows, columns, row-drive-energy-fj, column-energy-fj, "
+                + "conversion-energy-fj, converter-bits, cell-write-energy-fj and shift-add-energy-fj";
+        int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
+        int columns = (int) whole(o, requireEntry(o, "columns", needs), 1, MAX_UNITS_SIDE);
+        int count = o.get("macros") != null ? (int) whole(o, o.get("macros"), 1, MAX_UNITS_SIDE) : 1;
+        int bitsPerCell = o.get("bits-per-cell") != null ? (int) whole(o, o.get("bits-per-cell"), 1, 8) : 1;
+        int weightBits = o.get("weight-bits") != null ? (int) whole(o, o.get("weight-bits"), 1, 64) : 0;
+        int active = o.get("rows-active") != null ? (int) whole(o, o.get("rows-active"), 1, rows) : rows;
+        int inBits = o.get("input-bits-per-cycle") != null
+                ? (int) whole(o, o.get("input-bits-per-cycle"), 1, 64) : 1;
+        double row = nonNegative(o, requireEntry(o, "row-drive-energy-fj", needs));
+        double col = nonNegative(o, requireEntry(o, "column-energy-fj", needs));
+        double conv = nonNegative(o, requireEntry(o, "conversion-energy-fj", needs));
+        int convBits = (int) whole(o, requireEntry(o, "converter-bits", needs), 1, 32);
+        double write = nonNegative(o, requireEntry(o, "cell-write-energy-fj", needs));
+        double shift = nonNegative(o, requireEntry(o, "shift-add-energy-fj", needs));
+        double writeCycles = o.get("write-cycles-per-row") != null ? nonNegative(o, o.get("write-cycles-per-row")) : 1;
+        Engine.Macro m = new Engine.Macro(bitsPerCell, weightBits, count, active, inBits, row, col, conv, convBits,
+                write, shift, writeCycles);
+        return Engine.of(id, Engine.Kind.IN_MEMORY_MACRO, rows, columns, 0, Dataflow.WEIGHT_STATIONARY, Map.of(), 1,
+                accumulatorBits(o), overhead(o, 0), null, null, m);
+    }
+
+    private int accumulatorBits(Obj o) {
+        return o.get("accumulator-bits") != null
+                ? (int) whole(o, o.get("accumulator-bits"), 1, 64) : Engine.DEFAULT_ACCUMULATOR_BITS;
+    }
+
+    private long overhead(Obj o, long dflt) {
+        return o.get("layer-overhead-cycles") != null ? whole(o, o.get("layer-overhead-cycles"), 0, 1L << 40) : dflt;
+    }
+}
