@@ -37,7 +37,8 @@ class DeviceLoaderTest {
                     .forEach(n -> files.add(n.substring(0, n.length() - ".yaml".length())));
         }
         assertEquals(List.copyOf(files), DeviceLoader.presetIds());
-        assertEquals(List.of("feeder-npu", "generic-45nm", "validation-65nm"), DeviceLoader.presetIds());
+        assertEquals(List.of("edge22-analog", "edge22-in-memory", "edge22-no-reuse", "edge22-reuse", "edge22-xnor",
+                "feeder-npu", "generic-45nm", "validation-65nm", "validation-in-memory-65nm"), DeviceLoader.presetIds());
     }
 
     @ParameterizedTest
@@ -47,7 +48,7 @@ class DeviceLoaderTest {
         assertEquals("preset:" + id, p.id());
         assertNotNull(p.sram());
         assertNotNull(p.dram());
-        assertNotNull(p.first(Engine.Kind.MAC_ARRAY));
+        assertTrue(p.engines().stream().anyMatch(Engine::isArray), "an engine for MAC layers");
         assertFalse(p.sources().isEmpty());
     }
 
