@@ -188,6 +188,31 @@ class DeviceLoaderTest {
         assertTrue(doc.contains("```yaml\n" + example + "```"), "docs/profiles.md must embed example-device.yaml");
     }
 
+    /** The examples of the new engine kinds load, carry their keys, and appear verbatim in docs/profiles.md. */
+    @Test
+    void analogAndInMemoryExamplesLoadAndAreShownVerbatim() throws Exception {
+        Path root = TestFiles.repoRoot();
+        String doc = Files.readString(root.resolve("docs/profiles.md"), StandardCharsets.UTF_8);
+        for (String name : List.of("example-in-memory.yaml", "example-analog.yaml")) {
+            String text = Files.readString(root.resolve("docs/examples").resolve(name), StandardCharsets.UTF_8);
+            assertTrue(doc.contains("```yaml\n" + text + "```"), "docs/profiles.md must embed " + name);
+        }
+        DeviceProfile m = DeviceLoader.load("docs/examples/example-in-memory.yaml", root);
+        Engine macro = m.engines().get(0);
+        assertEquals(Engine.Kind.IN_MEMORY_MACRO, macro.kind());
+        assertEquals(4L * 256 * 128, macro.units());
+        assertEquals(new Engine.Macro(2, 4, 4, 64, 1, 30, 40, 150, 6, 4, 8, 1), macro.macro());
+        assertEquals(24, macro.accumulatorBits());
+        assertEquals(16, macro.layerOverheadCycles());
+        DeviceProfile a = DeviceLoader.load("docs/examples/example-analog.yaml", root);
+        Engine analog = a.engines().get(0);
+        assertEquals(Engine.Kind.ANALOG_SUM_ARRAY, analog.kind());
+        assertEquals(new Engine.AnalogSum(0.3, 120, 7, 12), analog.analog());
+        assertEquals(3, analog.energyAt("int4").fj);
+        assertEquals(new Engine.Binary(0.15, 1.2), a.engines().get(1).binary());
+        assertEquals(25, a.engines().get(1).energyAt("w4a8").fj);
+    }
+
     static String describe(DeviceProfile p) {
         StringBuilder b = new StringBuilder();
         b.append(p.name()).append('|').append(p.description()).append('|').append(p.clockMhz()).append('|')
