@@ -2,22 +2,16 @@ package dev.erg.device;
 
 import static dev.erg.device.ProfileTree.clip;
 
-import com.fasterxml.jackson.core.JsonToken;
-import dev.erg.error.BadInputException;
 import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;
-import dev.erg.onnx.ElemType;
 import java.util.ArrayList;
 import java.util.Collections;
 import java.util.HashMap;
-import java.util.LinkedHashMap;
 import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.TreeSet;
-import java.util.regex.Pattern;
 
 /** Reads the engines of a profile, one method per kind (docs/profiles.md, "Engines"). */
 final class EngineReader extends ProfileFields {

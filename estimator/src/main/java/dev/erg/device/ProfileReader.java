@@ -2,13 +2,10 @@ package dev.erg.device;
 
 import static dev.erg.device.ProfileTree.clip;
 
-import com.fasterxml.jackson.core.JsonToken;
 import dev.erg.error.BadInputException;
 import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;
-import dev.erg.onnx.ElemType;
-import java.util.ArrayList;
 import java.util.Collections;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
@@ -16,8 +13,6 @@ import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
-import java.util.TreeSet;
-import java.util.regex.Pattern;
 
 /**
  * Turns a profile document tree into a {@link DeviceProfile}, strictly: every key must be known,

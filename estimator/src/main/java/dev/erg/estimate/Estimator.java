@@ -130,7 +130,7 @@ public final class Estimator {
                     continue; // its weights live in the engine's cells, not in SRAM
                 }
             } else {
-                mapVector(est[i], nw, wb);
+                mapVector(est[i], nw, wb, s.fusedIn[i]);
             }
             weightBytes[i] = wb;
             sramWeights.addAll(src);
@@ -225,11 +225,10 @@ public final class Estimator {
         return new MacJob(w, aBits, wBits, oBits, engine.accumulatorBits(), e.precision, writesOut, constant);
     }
 
-    private void mapVector(NodeEstimate e, NodeWork w, long weightBytes) {
+    private void mapVector(NodeEstimate e, NodeWork w, long weightBytes, boolean fusedIn) {
         Engine engine = vectorEngine != null ? vectorEngine : arrayEngine;
         e.engine = engine.id();
         Node node = w.node();
-        boolean fusedIn = s.fusedIn[w.node().index()];
         Value fusedValue = fusedIn ? Fusion.fusedInput(node) : null;
         long in = 0;
         for (int k = 0; k < node.inputCount(); k++) {

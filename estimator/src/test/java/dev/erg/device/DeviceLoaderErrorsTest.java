@@ -226,13 +226,13 @@ class DeviceLoaderErrorsTest {
     void wrongExtensionIsRejectedBeforeReading() {
         BadInputException e = assertThrows(BadInputException.class, () -> DeviceLoader.load("feeder.txt", dir));
         assertEquals("feeder.txt: not a device profile file name (it must end in .yaml, .yml or .json, or use "
-                + "preset:ID; presets: feeder-npu, generic-45nm, validation-65nm)", e.getMessage());
+                + "preset:ID; presets: edge22-analog, edge22-in-memory, edge22-no-reuse, edge22-reuse, edge22-xnor, feeder-npu, generic-45nm, validation-65nm, validation-in-memory-65nm)", e.getMessage());
     }
 
     @Test
     void unknownPresetListsThePresets() {
         BadInputException e = assertThrows(BadInputException.class, () -> DeviceLoader.load("preset:nope", dir));
-        assertEquals("preset:nope: no such preset (presets: feeder-npu, generic-45nm, validation-65nm)",
+        assertEquals("preset:nope: no such preset (presets: edge22-analog, edge22-in-memory, edge22-no-reuse, edge22-reuse, edge22-xnor, feeder-npu, generic-45nm, validation-65nm, validation-in-memory-65nm)",
                 e.getMessage());
         e = assertThrows(BadInputException.class, () -> DeviceLoader.load("preset:../../secret", dir));
         assertTrue(e.getMessage().startsWith("preset:../../secret: no such preset"), e.getMessage());
