@@ -20,6 +20,7 @@ import java.util.Set;
  * bytes, activation bytes and the label the node's operations are priced at.
  */
 final class Precision {
+    private static final Set<String> RECURRENT = Set.of("LSTM", "GRU", "RNN");
     private final Schedule s;
     private final PrecisionOverrides overrides;
     private final String deploy;
@@ -95,6 +96,10 @@ final class Precision {
             Value v = node.opType().startsWith("QLinear") ? node.input(3) : node.inputCount() > 1 ? node.input(1) : null;
             if (v != null && v.isConstant()) {
                 s.deployWeight(v, wBits);
+            }
+            Value recurrent = RECURRENT.contains(node.opType()) && node.inputCount() > 2 ? node.input(2) : null;
+            if (recurrent != null && recurrent.isConstant()) {
+                s.deployWeight(recurrent, wBits); // the recurrent weights of LSTM, GRU and RNN
             }
         }
     }

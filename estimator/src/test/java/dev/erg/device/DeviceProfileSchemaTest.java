@@ -73,6 +73,15 @@ class DeviceProfileSchemaTest {
         assertTrue(errors.isEmpty(), name + ": " + errors);
     }
 
+    /** The profile of the hearing-aid sample (samples/hearing-aid-kws) is valid too, and loads. */
+    @Test
+    void theSampleProfileIsValid() throws Exception {
+        Path f = TestFiles.repoRoot().resolve("samples/hearing-aid-kws/earbud-imc.yaml");
+        Set<ValidationMessage> errors = validate(Files.readString(f, StandardCharsets.UTF_8));
+        assertTrue(errors.isEmpty(), errors.toString());
+        assertEquals(Engine.Kind.IN_MEMORY_MACRO, DeviceLoader.load(f.toString(), null).engines().get(0).kind());
+    }
+
     static Stream<String> examples() throws Exception {
         Path dir = TestFiles.repoRoot().resolve("docs/examples");
         List<String> names;
