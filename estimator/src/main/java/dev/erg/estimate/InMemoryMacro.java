@@ -54,6 +54,9 @@ final class InMemoryMacro implements EngineModel {
 
     @Override
     public void map(MacJob j, NodeEstimate e) {
+        if (j.macs == 0) {
+            return; // an empty product: no tile, no cycle
+        }
         long rows = engine.rows();
         long cols = engine.columns();
         long active = mc.rowsActive();
