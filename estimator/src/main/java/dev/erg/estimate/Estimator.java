@@ -112,8 +112,11 @@ public final class Estimator {
                     Engine flatEngine = model instanceof DigitalArray || vectorEngine == null ? model.engine()
                             : vectorEngine;
                     model = new VectorUnit(flatEngine);
-                    if (flatEngine == vectorEngine) {
+                    if (array == null) {
                         assumptions.add("the profile has no MAC array: MACs run on the vector unit without reuse");
+                    } else if (flatEngine == vectorEngine) {
+                        assumptions.add("'" + nw.name() + "' has no matrix view for '" + arrayEngine.id()
+                                + "': its MACs run on the vector unit without reuse");
                     }
                 }
                 model.map(job, est[i]);
