@@ -2,6 +2,7 @@ package dev.erg.report;
 
 import com.fasterxml.jackson.core.JsonGenerator;
 import dev.erg.budget.Budget;
+import dev.erg.budget.BudgetRules;
 import dev.erg.budget.Check;
 import dev.erg.budget.GateResult;
 import dev.erg.budget.LayerDiff;
@@ -233,14 +234,11 @@ public final class EstimateJson {
 
         private void gate(JsonGenerator g) throws IOException {
             PairResult p = f.pair;
-            Budget b = gate.budget();
+            Budget b = p.budget();
             g.writeObjectFieldStart("budget");
-            optional(g, "targetFps", b.targetFps());
-            optional(g, "maxPowerMw", b.maxPowerMw());
-            optional(g, "maxEnergyPerFrameUj", b.maxEnergyPerFrameUj());
-            optional(g, "maxLatencyMs", b.maxLatencyMs());
-            optional(g, "maxWeightKib", b.maxWeightKib());
-            optional(g, "maxActivationKib", b.maxActivationKib());
+            for (String key : BudgetRules.keys()) {
+                optional(g, key, b.limit(key));
+            }
             g.writeEndObject();
             g.writeObjectFieldStart("baseline");
             nullableString(g, "file", gate.baselineFile());
@@ -252,14 +250,15 @@ public final class EstimateJson {
             for (Check c : p.checks()) {
                 g.writeStartObject();
                 g.writeStringField("kind", c.kind().label);
-                g.writeStringField("metric", c.metric().key);
-                g.writeStringField("unit", c.metric().unit);
+                g.writeStringField("metric", c.subject());
+                g.writeStringField("unit", c.unit());
                 num(g, "value", c.value());
                 num(g, "limit", c.limit());
                 if (c.kind() == Check.Kind.GROWTH) {
                     num(g, "baseline", c.baseline());
                 }
                 g.writeBooleanField("passed", c.passed());
+                g.writeStringField("verdict", c.verdict().label);
                 g.writeStringField("message", c.message());
                 g.writeArrayFieldStart("topLayers");
                 for (LayerShare s : c.topLayers()) {

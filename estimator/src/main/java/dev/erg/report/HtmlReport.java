@@ -153,7 +153,7 @@ public final class HtmlReport {
             for (Check c : checks) {
                 h.append("<li class=\"").append(c.passed() ? "ok" : "bad").append("\"><span class=\"pill\">")
                         .append(c.passed() ? "ok" : "FAIL").append("</span> <span class=\"kind\">")
-                        .append(esc(c.kind().label)).append('.').append(esc(c.metric().key)).append("</span> ")
+                        .append(esc(c.key())).append("</span> ")
                         .append(esc(c.message())).append("</li>\n");
             }
             h.append("</ul>\n");

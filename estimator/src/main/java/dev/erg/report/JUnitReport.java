@@ -13,9 +13,9 @@ import java.util.List;
  * A JUnit-style XML report of one model x device pair, so that CI servers list every limit as a test
  * case. The document is one {@code <testsuite name="erg.STEM">} with a {@code <properties>} block
  * (model, device, device name, frame rate, notice), one {@code <testcase classname="erg.STEM"
- * name="KIND.METRIC">} per check (e.g. {@code budget.frameRate}, {@code baseline.macs}), and the
+ * name="KIND.SUBJECT">} per check (e.g. {@code budget.frameRate}, {@code growth.macs}), and the
  * pair's console text as {@code <system-out>}. A failed check holds {@code <failure message="THE
- * CHECK'S MESSAGE" type="budget|growth">} with the layers that contribute most as its text.
+ * CHECK'S MESSAGE" type="budget|growth|policy">} with the layers that contribute most as its text.
  *
  * <p>A pair with no check still gets one test case, {@code estimate.complete}: it passes when every
  * node was priced and is skipped (with the unpriced operators as its message) when the estimate is
@@ -40,14 +40,14 @@ public final class JUnitReport {
         int skipped = 0;
         for (Check c : p.checks()) {
             StringBuilder t = new StringBuilder();
-            t.append("  <testcase name=\"").append(xml(c.kind().label + "." + c.metric().key)).append("\" classname=\"")
+            t.append("  <testcase name=\"").append(xml(c.key())).append("\" classname=\"")
                     .append(xml(suite)).append("\" time=\"0\"");
             if (c.passed()) {
                 t.append("/>\n");
             } else {
                 failures++;
                 t.append(">\n    <failure message=\"").append(attr(c.message())).append("\" type=\"")
-                        .append(c.kind() == Check.Kind.BUDGET ? "budget" : "growth").append("\">")
+                        .append(c.kind().label).append("\">")
                         .append(xml(failureText(c))).append("</failure>\n  </testcase>\n");
             }
             cases.add(t.toString());
@@ -97,7 +97,7 @@ public final class JUnitReport {
                 b.append("\n  ").append(s.name()).append(" (").append(s.opType()).append(") ");
                 if (c.kind() == Check.Kind.GROWTH) {
                     b.append(c.metric() == Metric.MACS ? Format.signedExact(Math.round(s.value()))
-                            : Format.signed(s.value())).append(' ').append(c.metric().unit);
+                            : Format.signed(s.value())).append(' ').append(c.unit());
                 } else {
                     b.append(Format.percent(s.share()));
                 }

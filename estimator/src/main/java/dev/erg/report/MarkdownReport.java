@@ -98,10 +98,12 @@ public final class MarkdownReport {
         if (!p.checks().isEmpty()) {
             b.append("| | check | value | limit | message |\n|---|---|---:|---:|---|\n");
             for (Check c : p.checks()) {
-                String unit = " " + c.metric().unit;
-                b.append("| ").append(c.passed() ? "ok" : "**FAIL**").append(" | ").append(c.kind().label).append('.')
-                        .append(c.metric().key).append(" | ").append(text(Format.sig(c.value()) + unit)).append(" | ")
-                        .append(text(Format.sig(c.limit()) + unit)).append(" | ").append(text(c.message()))
+                String unit = c.metric() == null ? "" : " " + c.unit();
+                String value = c.metric() == null ? "-" : Format.sig(c.value()) + unit;
+                String limit = c.metric() == null ? "-" : Format.sig(c.limit()) + unit;
+                b.append("| ").append(c.passed() ? "ok" : "**FAIL**").append(" | ").append(c.key())
+                        .append(" | ").append(text(value)).append(" | ")
+                        .append(text(limit)).append(" | ").append(text(c.message()))
                         .append(" |\n");
             }
             b.append('\n');

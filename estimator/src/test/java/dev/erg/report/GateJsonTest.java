@@ -71,7 +71,7 @@ class GateJsonTest {
         assertEquals(List.of("id", "name", "description", "clockMhz", "staticPowerMw", "deployPrecision",
                 "peakMacsPerSecond", "engines", "sram", "dram"), names(root.get("device")));
         JsonNode fps = root.at("/checks/0");
-        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "passed", "message", "topLayers"), names(fps));
+        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "passed", "verdict", "message", "topLayers"), names(fps));
         Check c = r.pairs().get(0).checks().get(0);
         assertEquals("budget", fps.get("kind").asText());
         assertEquals("frameRate", fps.get("metric").asText());
@@ -145,9 +145,10 @@ class GateJsonTest {
                 Baseline.of(base.pairs()), "erg-baseline.json", 10.0);
         JsonNode root = json(r);
         JsonNode macs = root.at("/checks/0");
-        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "baseline", "passed", "message", "topLayers"),
+        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "baseline", "passed", "verdict", "message",
+                "topLayers"),
                 names(macs));
-        assertEquals("baseline", macs.get("kind").asText());
+        assertEquals("growth", macs.get("kind").asText());
         // 6,912 -> 13,824 MACs, allowed 10%: limit 7,603.2.
         assertEquals(6912, macs.get("baseline").asDouble());
         assertEquals(13824, macs.get("value").asDouble());

@@ -107,7 +107,7 @@ class JUnitReportTest {
         List<Element> cases = cases(d);
         // Five growth metrics (Gate: MACs, energy per frame, latency, weights, peak activations).
         assertEquals(5, cases.size());
-        assertEquals("baseline.macs", cases.get(0).getAttribute("name"));
+        assertEquals("growth.macs", cases.get(0).getAttribute("name"));
         Element failure = (Element) cases.get(0).getElementsByTagName("failure").item(0);
         assertEquals("growth", failure.getAttribute("type"));
         assertEquals(r.pairs().get(0).checks().get(0).message(), failure.getAttribute("message"));

@@ -143,7 +143,7 @@ class MarkdownReportTest {
         assertTrue(diff.get(2).startsWith("| changed | `conv` | `Conv` | +6,912 | +"), diff.get(2));
         assertTrue(diff.get(3).startsWith("| added | `act` | `Relu` | 0 | +"), diff.get(3));
         assertTrue(diff.get(4).startsWith("| removed | `relu` | `Relu` | 0 | -"), diff.get(4));
-        assertTrue(md.contains("| **FAIL** | baseline.macs | "), md);
+        assertTrue(md.contains("| **FAIL** | growth.macs | "), md);
     }
 
     @Test
