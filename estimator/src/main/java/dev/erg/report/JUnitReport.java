@@ -37,14 +37,14 @@ public final class JUnitReport {
 
     /** The XML document of one pair. */
     public static String render(GateResult result, PairResult p) {
-        return render(result, p, Reports.stem(p));
+        return render(Figures.of(p), result, Reports.stem(p));
     }
 
-    static String render(GateResult result, PairResult p, String stem) {
+    static String render(Figures f, GateResult result, String stem) {
         StringWriter out = new StringWriter();
         try {
             XMLStreamWriter x = XMLOutputFactory.newFactory().createXMLStreamWriter(out);
-            write(x, result, p, "erg." + stem);
+            write(x, result, f, "erg." + stem);
             x.flush();
             x.close();
         } catch (XMLStreamException e) {
@@ -53,8 +53,9 @@ public final class JUnitReport {
         return out.toString();
     }
 
-    private static void write(XMLStreamWriter x, GateResult result, PairResult p, String suite)
+    private static void write(XMLStreamWriter x, GateResult result, Figures f, String suite)
             throws XMLStreamException {
+        PairResult p = f.pair;
         int failures = 0;
         for (Check c : p.checks()) {
             failures += c.passed() ? 0 : 1;
@@ -104,7 +105,7 @@ public final class JUnitReport {
         }
         x.writeCharacters("\n  ");
         x.writeStartElement("system-out");
-        x.writeCharacters(clean(ConsoleReport.pair(p, ConsoleReport.DEFAULT_TOP)));
+        x.writeCharacters(clean(ConsoleReport.pair(f, ConsoleReport.DEFAULT_TOP)));
         x.writeEndElement();
         x.writeCharacters("\n  ");
         x.writeStartElement("system-err");

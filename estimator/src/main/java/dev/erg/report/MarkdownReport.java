@@ -26,8 +26,12 @@ public final class MarkdownReport {
 
     /** The summary of one pair of a gate result. */
     public static String render(GateResult result, PairResult p) {
+        return render(Figures.of(p), result);
+    }
+
+    static String render(Figures f, GateResult result) {
         StringBuilder b = new StringBuilder();
-        pair(b, Figures.of(p), result);
+        pair(b, f, result);
         b.append("> ").append(text(AnalysisJson.NOTICE)).append('\n');
         return b.toString();
     }
@@ -144,7 +148,7 @@ public final class MarkdownReport {
             Energy e = n.energy();
             b.append("| ").append(i + 1).append(" | ").append(code(n.name())).append(" | ").append(code(n.work().opType()))
                     .append(" | ").append(Format.count(n.work().macs())).append(" | ")
-                    .append(ConsoleReport.utilization(n)).append(" | ")
+                    .append(ConsoleReport.utilisation(n)).append(" | ")
                     .append(Format.sig(n.latencySeconds() * 1e6)).append(" | ").append(uj(e.compute())).append(" | ")
                     .append(uj(e.registers())).append(" | ").append(uj(e.sram())).append(" | ").append(uj(e.dram()))
                     .append(" | ").append(uj(e.staticEnergy())).append(" | ").append(uj(e.total())).append(" | ")

@@ -99,24 +99,25 @@ public final class Reports {
             Files.createDirectories(dir);
             for (PairResult p : result.pairs()) {
                 String stem = stem(p);
+                Figures f = Figures.of(p); // the one view of the pair that every writer reads
                 if (formats.contains("json")) {
                     target = dir.resolve(stem + ".json");
-                    Files.write(target, GateJson.toBytes(result, p));
+                    Files.write(target, EstimateJson.bytes(f, result));
                     written.add(target);
                 }
                 if (formats.contains("html")) {
                     target = dir.resolve(stem + ".html");
-                    Files.write(target, utf8(HtmlReport.render(result, p)));
+                    Files.write(target, utf8(HtmlReport.render(f, result)));
                     written.add(target);
                 }
                 if (formats.contains("markdown")) {
                     target = dir.resolve(stem + ".md");
-                    Files.write(target, utf8(MarkdownReport.render(result, p)));
+                    Files.write(target, utf8(MarkdownReport.render(f, result)));
                     written.add(target);
                 }
                 if (formats.contains("junit")) {
                     target = dir.resolve("TEST-erg." + stem + ".xml");
-                    Files.write(target, utf8(JUnitReport.render(result, p, stem)));
+                    Files.write(target, utf8(JUnitReport.render(f, result, stem)));
                     written.add(target);
                 }
             }
