@@ -6,7 +6,6 @@ import dev.erg.estimate.NodeEstimate;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
-import java.util.Locale;
 import java.util.function.ToDoubleFunction;
 
 /** The table of budget rules, in the order checks are listed, and the one way every rule is checked. */
@@ -29,8 +28,8 @@ public final class BudgetRules {
                     new BudgetRule.Words("meets", "is below", "target"), null, null),
             new BudgetRule(MAX_POWER_MW, Metric.POWER, BudgetRule.Direction.AT_MOST,
                     (e, fps) -> e.averagePowerWatts(fps) * 1e3, ENERGY, "energy", WITHIN,
-                    (e, fps) -> " at " + Numbers.quantity(fps) + " fps",
-                    (e, fps) -> "; static power is " + Numbers.quantity(e.device().staticPowerMw()) + " mW of it"),
+                    (e, fps) -> " at " + Numbers.sig(fps) + " fps",
+                    (e, fps) -> "; static power is " + Numbers.sig(e.device().staticPowerMw()) + " mW of it"),
             new BudgetRule(MAX_ENERGY_PER_FRAME_UJ, Metric.ENERGY_PER_FRAME, BudgetRule.Direction.AT_MOST,
                     (e, fps) -> e.energyPerFrameJoules() * 1e6, ENERGY, "energy", WITHIN, null, null),
             new BudgetRule(MAX_LATENCY_MS, Metric.LATENCY, BudgetRule.Direction.AT_MOST,
@@ -93,12 +92,12 @@ public final class BudgetRules {
         List<LayerShare> top = top(e, r.blame());
         String unit = r.metric().unit;
         StringBuilder m = new StringBuilder(who).append(": ").append(r.metric().label).append(' ')
-                .append(Numbers.quantity(v)).append(' ').append(unit);
+                .append(Numbers.sig(v)).append(' ').append(unit);
         if (r.qualifier() != null) {
             m.append(r.qualifier().of(e, fps));
         }
         m.append(' ').append(ok ? r.words().pass() : r.words().fail()).append(" the ").append(r.words().limit())
-                .append(" of ").append(Numbers.quantity(limit)).append(' ').append(unit);
+                .append(" of ").append(Numbers.sig(limit)).append(' ').append(unit);
         if (!ok) {
             if (r.failDetail() != null) {
                 m.append(r.failDetail().of(e, fps));
@@ -144,6 +143,6 @@ public final class BudgetRules {
     }
 
     private static String percent(double share) {
-        return String.format(Locale.ROOT, "%.1f%%", 100 * share);
+        return Numbers.percent(share);
     }
 }

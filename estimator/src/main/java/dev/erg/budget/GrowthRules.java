@@ -5,7 +5,6 @@ import dev.erg.format.Numbers;
 import java.util.ArrayList;
 import java.util.Comparator;
 import java.util.List;
-import java.util.Locale;
 
 /** The table of growth rules, in the order checks are listed, and the one way every rule is checked. */
 public final class GrowthRules {
@@ -51,18 +50,18 @@ public final class GrowthRules {
         }
         String unit = r.metric().unit;
         StringBuilder msg = new StringBuilder(who).append(": ").append(r.metric().label).append(' ');
-        String pctText = Double.isInfinite(pct) ? "from zero" : String.format(Locale.ROOT, "%+.1f%%", pct);
-        msg.append("changed ").append(pctText).append(" over the baseline (").append(Numbers.quantity(before))
-                .append(" -> ").append(Numbers.quantity(now)).append(' ').append(unit).append(")");
+        String pctText = Double.isInfinite(pct) ? "from zero" : Numbers.signedPercent(pct);
+        msg.append("changed ").append(pctText).append(" over the baseline (").append(Numbers.sig(before))
+                .append(" -> ").append(Numbers.sig(now)).append(' ').append(unit).append(")");
         if (ok) {
-            msg.append(", within the allowed ").append(Numbers.quantity(allowed)).append('%');
+            msg.append(", within the allowed ").append(Numbers.sig(allowed)).append('%');
         } else {
-            msg.append(", more than the allowed ").append(Numbers.quantity(allowed)).append('%');
+            msg.append(", more than the allowed ").append(Numbers.sig(allowed)).append('%');
             if (!top.isEmpty()) {
                 msg.append(" (layers that grew most: ");
                 for (int i = 0; i < top.size(); i++) {
                     LayerShare s = top.get(i);
-                    msg.append(i == 0 ? "" : ", ").append(s.name()).append(" +").append(Numbers.quantity(s.value()))
+                    msg.append(i == 0 ? "" : ", ").append(s.name()).append(" +").append(Numbers.sig(s.value()))
                             .append(' ').append(unit);
                 }
                 msg.append(')');

@@ -101,7 +101,7 @@ public final class ConsoleReport {
         } else {
             b.append(shown.size() == ranked.size() ? "All " + plural(ranked.size(), "layer")
                     : "Top " + shown.size() + " of " + ranked.size() + " layers").append(" by energy (energy in µJ)\n");
-            TextTable t = new TextTable(">#", "layer", "op", ">MACs", ">util", ">lat µs", ">compute", ">regs",
+            TextTable t = new TextTable(">#", "layer", "op", ">MACs", ">utilisation", ">latency µs", ">compute", ">registers",
                     ">SRAM", ">DRAM", ">static", ">total", ">share", "bound");
             int rank = 0;
             for (NodeEstimate n : shown) {

@@ -34,7 +34,7 @@ import java.nio.file.Path;
  *       "weightsResident", "residentWeightBytes", "deviceWeightBytes", "deviceActivationPeakBytes",
  *       "dramBytesPerFrame" },
  *   "nodes": [ { ...analysis..., then, for a node that runs on the device,
- *       "estimate": { "engine", "precision", "latencySeconds", "utilization", "bound", "computeCycles",
+ *       "estimate": { "engine", "precision", "latencySeconds", "utilisation", "bound", "computeCycles",
  *                     "bytes": { "registerRead", "registerWrite", "sramRead", "sramWrite", "dramRead", "dramWrite" },
  *                     "energyJoules": { "compute", "registers", "sram", "dram", "static", "total" },
  *                     "fusedInto"?, "tiling"?,
@@ -150,7 +150,7 @@ public final class EstimateJson {
             g.writeStringField("engine", n.engine());
             g.writeStringField("precision", n.precision());
             num(g, "latencySeconds", n.latencySeconds());
-            num(g, "utilization", n.utilization());
+            num(g, "utilisation", n.utilization());
             g.writeStringField("bound", n.bound().label);
             g.writeNumberField("computeCycles", n.computeCycles());
             g.writeObjectFieldStart("bytes");

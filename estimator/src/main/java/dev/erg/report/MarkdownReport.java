@@ -141,7 +141,7 @@ public final class MarkdownReport {
         }
         b.append("**").append(shown == ranked.size() ? "All " + ConsoleReport.plural(shown, "layer")
                 : "Top " + shown + " of " + ranked.size() + " layers").append(" by energy** (µJ; latency in µs)\n\n");
-        b.append("| # | layer | op | MACs | util | latency | compute | registers | SRAM | DRAM | static | total | share |"
+        b.append("| # | layer | op | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM | static | total | share |"
                 + " bound |\n|---:|---|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|\n");
         for (int i = 0; i < shown; i++) {
             NodeEstimate n = ranked.get(i);

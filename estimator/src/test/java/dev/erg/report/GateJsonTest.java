@@ -62,7 +62,7 @@ class GateJsonTest {
         JsonNode conv = root.at("/nodes/0");
         assertEquals(List.of("name", "opType", "macs", "vectorOps", "weightBytes", "inputBytes", "outputBytes",
                 "precision", "outputShapes", "kind", "weightPrecision", "gemm", "estimate"), names(conv));
-        assertEquals(List.of("engine", "precision", "latencySeconds", "utilization", "bound", "computeCycles", "bytes",
+        assertEquals(List.of("engine", "precision", "latencySeconds", "utilisation", "bound", "computeCycles", "bytes",
                 "energyJoules", "seconds"), names(conv.get("estimate")));
         assertEquals(List.of("registerRead", "registerWrite", "sramRead", "sramWrite", "dramRead", "dramWrite"),
                 names(conv.at("/estimate/bytes")));
@@ -99,7 +99,7 @@ class GateJsonTest {
         assertEquals(1_600, e.at("/bytes/dramWrite").asLong());
         assertEquals("sram", e.get("bound").asText());
         assertEquals(1800, e.get("computeCycles").asLong());
-        assertEquals(1.0, e.get("utilization").asDouble(), 1e-12);
+        assertEquals(1.0, e.get("utilisation").asDouble(), 1e-12);
         assertEquals(74.72e-6, e.get("latencySeconds").asDouble(), 1e-15);
         assertEquals(11.52e-9, e.at("/energyJoules/compute").asDouble(), 1e-18);
         assertEquals(5.76e-9, e.at("/energyJoules/registers").asDouble(), 1e-18);
