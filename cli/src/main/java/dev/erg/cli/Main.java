@@ -1,6 +1,7 @@
 package dev.erg.cli;
 
 import dev.erg.error.BadInputException;
+import dev.erg.graph.UnboundDimException;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintWriter;
@@ -66,6 +67,10 @@ public final class Main implements Callable<Integer> {
 
     /** Prints the one line for {@code e} and returns its exit code. */
     static int failure(Throwable e, PrintWriter err) {
+        if (e instanceof UnboundDimException u) {
+            err.println("erg: " + oneLine(e.getMessage()) + "; bind it with --dim " + u.dim() + "=N");
+            return BAD_INPUT;
+        }
         if (e instanceof BadInputException) {
             err.println("erg: " + oneLine(e.getMessage()));
             return BAD_INPUT;

@@ -59,9 +59,9 @@ public final class ConsoleReport {
     /** An estimate alone ({@code erg estimate}): the table and the totals; power at {@code fps} (null: back to back). */
     public static String estimate(DeviceEstimate e, Double fps, int top) {
         checkTop(top);
-        dev.erg.onnx.OnnxModel m = Format.model(e.workload());
+        dev.erg.workload.ModelInfo m = Format.model(e.workload());
         StringBuilder b = new StringBuilder();
-        pair(b, Figures.of(m == null ? "?" : m.file().toString(), e.device().id(), e, fps), top);
+        pair(b, Figures.of(m.file() == null ? "?" : m.file().toString(), e.device().id(), e, fps), top);
         b.append('\n').append(AnalysisJson.NOTICE).append('\n');
         return b.toString();
     }

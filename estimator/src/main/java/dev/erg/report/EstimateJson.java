@@ -14,7 +14,7 @@ import dev.erg.device.Memory;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Energy;
 import dev.erg.estimate.NodeEstimate;
-import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.ModelInfo;
 import dev.erg.workload.NodeWork;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
@@ -56,8 +56,8 @@ public final class EstimateJson {
 
     /** The estimate document; power is taken at {@code fps}, or with frames back to back when null. */
     public static byte[] toBytes(DeviceEstimate e, Double fps) {
-        OnnxModel m = Format.model(e.workload());
-        return bytes(Figures.of(m == null ? "" : m.file().toString(), e.device().id(), e, fps), null);
+        ModelInfo m = Format.model(e.workload());
+        return bytes(Figures.of(m.file() == null ? "" : m.file().toString(), e.device().id(), e, fps), null);
     }
 
     /** Writes the estimate document to {@code file}, creating its parent folders. */

@@ -1,8 +1,7 @@
 package dev.erg.report;
 
 import dev.erg.format.Numbers;
-import dev.erg.graph.Graph;
-import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.ModelInfo;
 import dev.erg.workload.Kind;
 import dev.erg.workload.ModelWorkload;
 import dev.erg.workload.NodeWork;
@@ -59,25 +58,23 @@ final class Format {
         return n;
     }
 
-    static OnnxModel model(ModelWorkload w) {
-        Graph g = w.graph();
-        return g == null ? null : g.model();
+    /** What the reports say about the model, copied out of the analysis. */
+    static ModelInfo model(ModelWorkload w) {
+        return w.info();
     }
 
     /** Opset per domain, sorted by domain name, the default domain shown as {@value #DEFAULT_DOMAIN}. */
-    static Map<String, Long> opsets(OnnxModel m) {
+    static Map<String, Long> opsets(ModelInfo m) {
         Map<String, Long> out = new TreeMap<>();
-        if (m != null) {
-            for (Map.Entry<String, Long> e : m.opsets().entrySet()) {
-                out.put(e.getKey().isEmpty() ? DEFAULT_DOMAIN : e.getKey(), e.getValue());
-            }
+        for (Map.Entry<String, Long> e : m.opsets().entrySet()) {
+            out.put(e.getKey().isEmpty() ? DEFAULT_DOMAIN : e.getKey(), e.getValue());
         }
         return out;
     }
 
     /** The symbolic dims bound for this analysis, sorted by name. */
     static Map<String, Long> dims(ModelWorkload w) {
-        return w.graph() == null ? new TreeMap<>() : new TreeMap<>(w.graph().boundDims());
+        return w.info().boundDims();
     }
 
     /** An energy in joules with a readable unit ({@link Numbers#joules}). */

@@ -3,6 +3,7 @@ package dev.erg.maven;
 import dev.erg.budget.GateResult;
 import dev.erg.device.DeviceLoader;
 import dev.erg.error.BadInputException;
+import dev.erg.graph.UnboundDimException;
 import dev.erg.report.Reports;
 import dev.erg.run.DeviceSpec;
 import dev.erg.run.ModelSpec;
@@ -83,6 +84,9 @@ abstract class AbstractErgMojo extends AbstractMojo {
         RunOutcome outcome;
         try {
             outcome = Runner.run(req, line -> getLog().info(PREFIX + line));
+        } catch (UnboundDimException e) {
+            throw new MojoExecutionException(e.getMessage() + "; bind it with <dimensions><" + e.dim() + ">N</"
+                    + e.dim() + "></dimensions> in the <model>", e);
         } catch (BadInputException e) {
             throw new MojoExecutionException(e.getMessage(), e);
         }
