@@ -83,10 +83,11 @@ void notLogged(String fragment) {
 
 /**
  * Evaluates what the pom configures: models ([file: 'x.onnx', dims: [batch: 1]]), devices, budget
- * (a map of the budget's element names), baseline (path or null) and growth (percent).
+ * (a map of the budget's element names), baseline (path or null) and growth (percent); base, the
+ * module folder (relative to the project) that paths are relative to.
  */
 GateResult gate(Map cfg) {
-    def base = basedir.toPath()
+    def base = cfg.base ? new File(basedir, cfg.base).toPath() : basedir.toPath() // base: a module's folder
     def req = RunRequest.builder().deviceBase(base)
     cfg.models.each { m ->
         req.model(new ModelSpec(m.file, base.resolve(m.file), (m.dims ?: [:]).collectEntries { k, v -> [k, v as Long] }))
