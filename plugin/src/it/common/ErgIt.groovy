@@ -7,11 +7,13 @@
 import dev.erg.error.BadInputException
 import dev.erg.budget.Baseline
 import dev.erg.budget.Budget
-import dev.erg.budget.Gate
 import dev.erg.budget.GateResult
 import dev.erg.budget.PairResult
 import dev.erg.device.DeviceLoader
 import dev.erg.report.Reports
+import dev.erg.run.ModelSpec
+import dev.erg.run.RunRequest
+import dev.erg.run.Runner
 import groovy.json.JsonSlurper
 import groovy.transform.Field
 
@@ -81,19 +83,23 @@ void notLogged(String fragment) {
 
 /**
  * Evaluates what the pom configures: models ([file: 'x.onnx', dims: [batch: 1]]), devices, budget
- * (a map of the budget's element names), baseline (path or null) and growth (percent).
+ * (a map of the budget's element names), baseline (path or null) and growth (percent); base, the
+ * module folder (relative to the project) that paths are relative to.
  */
 GateResult gate(Map cfg) {
-    def base = basedir.toPath()
-    def models = cfg.models.collect { m ->
-        new Gate.ModelSpec(m.file, base.resolve(m.file), (m.dims ?: [:]).collectEntries { k, v -> [k, v as Long] })
+    def base = cfg.base ? new File(basedir, cfg.base).toPath() : basedir.toPath() // base: a module's folder
+    def req = RunRequest.builder().deviceBase(base)
+    cfg.models.each { m ->
+        req.model(new ModelSpec(m.file, base.resolve(m.file), (m.dims ?: [:]).collectEntries { k, v -> [k, v as Long] }))
     }
-    def devices = cfg.devices.collect { DeviceLoader.load(it, base) }
+    cfg.devices.each { req.device(it) }
     def b = Budget.builder()
-    (cfg.budget ?: [:]).each { k, v -> b."$k"(v as Double) }
-    def baseline = cfg.baseline ? Baseline.read(base.resolve(cfg.baseline)) : null
-    Double growth = cfg.baseline ? (cfg.growth ?: 5) as Double : null
-    return Gate.evaluate(models, devices, b.build(), baseline, cfg.baseline, growth, { } as Gate.Progress)
+    (cfg.budget ?: [:]).each { k, v -> b.limit(k, v as Double) }
+    req.budget(b.build())
+    if (cfg.baseline) {
+        req.baseline(cfg.baseline, base.resolve(cfg.baseline)).maxGrowthPercent((cfg.growth ?: 5) as Double)
+    }
+    return Runner.run(req.build(), Runner.Progress.NONE).result()
 }
 
 /** The library's one-line message for the first broken input among the configured models and devices. */

@@ -3,6 +3,7 @@ package dev.erg;
 import dev.erg.analysis.AnalysisOptions;
 import dev.erg.analysis.Analyzer;
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import com.fasterxml.jackson.databind.JsonNode;
@@ -49,9 +50,33 @@ class ExportsGoldenTest {
         assertTrue(w.complete());
         System.out.println("EXPORT | " + file.getParent().getFileName() + "/" + arch + " | " + w.macs() + " | "
                 + w.nodes().size() + " nodes");
-        if (truth.has(arch)) {
-            assertEquals(truth.get(arch).get("macs").asLong(), w.macs(),
-                    arch + ": " + truth.get(arch).get("source").asText() + " count");
+        if (WITHOUT_EXACT_TRUTH.containsKey(arch)) {
+            // No exact count was recorded for this export: its check is the published figure instead.
+            assertFalse(truth.has(arch), arch + " has an exact truth now: drop it from WITHOUT_EXACT_TRUTH");
+            double[] published = WITHOUT_EXACT_TRUTH.get(arch);
+            double ratio = w.macs() / published[0];
+            assertTrue(Math.abs(ratio - 1) <= published[1], arch + ": ratio " + ratio + " to the published figure");
+            return;
+        }
+        assertTrue(truth.has(arch), arch + ": no entry in models/exports/truth.json");
+        assertEquals(truth.get(arch).get("macs").asLong(), w.macs(),
+                arch + ": " + truth.get(arch).get("source").asText() + " count");
+    }
+
+    /**
+     * The exports that truth.json has no exact count for, each with its published MACs and tolerance:
+     * Swin-T 4.5 G (Liu et al., ICCV 2021, Table 1), two significant digits, 2%.
+     */
+    private static final Map<String, double[]> WITHOUT_EXACT_TRUTH = Map.of("swin_t", new double[] {4.5e9, 0.02});
+
+    /** Every entry of truth.json names an export that exists: none is checked against nothing. */
+    @Test
+    void everyTruthHasItsExport() throws Exception {
+        JsonNode truth = new ObjectMapper().readTree(exports().resolve("truth.json").toFile());
+        List<String> archs = files().map(f -> f.getFileName().toString().replace(".graph.onnx", "")).toList();
+        for (java.util.Iterator<String> it = truth.fieldNames(); it.hasNext(); ) {
+            String arch = it.next();
+            assertTrue(archs.contains(arch), arch + " in truth.json has no export");
         }
     }
 

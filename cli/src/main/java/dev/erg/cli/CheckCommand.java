@@ -1,19 +1,20 @@
 package dev.erg.cli;
 
-import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
-import dev.erg.budget.Gate;
 import dev.erg.budget.GateResult;
-import dev.erg.device.DeviceLoader;
-import dev.erg.device.DeviceProfile;
 import dev.erg.report.ConsoleReport;
 import dev.erg.report.Reports;
+import dev.erg.run.BudgetFile;
+import dev.erg.run.DeviceSpec;
+import dev.erg.run.ModelSpec;
+import dev.erg.run.RunOutcome;
+import dev.erg.run.RunRequest;
+import dev.erg.run.Runner;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
-import java.util.Set;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
 import picocli.CommandLine.Command;
@@ -22,8 +23,9 @@ import picocli.CommandLine.Parameters;
 
 /**
  * {@code erg check MODEL.onnx --device SPEC [budget options]}: gates the models on every device
- * against the budget and the baseline. Exit 0 when every check holds, 1 on a budget or growth
- * failure, 2 on bad input.
+ * against the budget, the baseline and the policies, through the library's runner (the same one the
+ * Maven goals call). Exit 0 when every check holds (or violations do not fail the run), 1 on a
+ * violation, 2 on bad input.
  */
 @Command(name = "check", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Checks models against a budget and a baseline on one or more device profiles;"
@@ -43,8 +45,8 @@ final class CheckCommand implements Callable<Integer> {
             description = "The most average power in mW, at the target frame rate (without one, back to back).")
     Double maxPowerMw;
 
-    @Option(names = "--max-energy-uj", paramLabel = "E", description = "The most energy per frame, in µJ.")
-    Double maxEnergyUj;
+    @Option(names = "--max-energy-per-frame-uj", paramLabel = "E", description = "The most energy per frame, in µJ.")
+    Double maxEnergyPerFrameUj;
 
     @Option(names = "--max-latency-ms", paramLabel = "L", description = "The most latency per frame, in ms.")
     Double maxLatencyMs;
@@ -56,6 +58,11 @@ final class CheckCommand implements Callable<Integer> {
             description = "The most peak activation bytes on the device, in KiB.")
     Double maxActivationKib;
 
+    @Option(names = "--budget-file", paramLabel = "FILE",
+            description = "A YAML or JSON file with the budget and the limits of single models and devices;"
+                    + " the limit options above override its budget block.")
+    Path budgetFile;
+
     @Option(names = "--baseline", paramLabel = "FILE",
             description = "The baseline file: its layers are compared; with --max-growth-percent, its metrics are limits.")
     Path baseline;
@@ -65,8 +72,13 @@ final class CheckCommand implements Callable<Integer> {
     Double maxGrowthPercent;
 
     @Option(names = "--write-baseline",
-            description = "Writes this run's results to the --baseline file (growth is then not checked).")
+            description = "Writes this run's results to the --baseline file, keeping the entries of other models"
+                    + " and devices (growth is then not checked).")
     boolean writeBaseline;
+
+    @Option(names = "--fail-on-violation", negatable = true, defaultValue = "true", fallbackValue = "true",
+            description = "Exits 1 when a limit or policy is broken (default); --no-fail-on-violation only reports.")
+    boolean failOnViolation;
 
     @Option(names = "--report-dir", paramLabel = "DIR", description = "Writes the report files into DIR.")
     Path reportDir;
@@ -87,6 +99,36 @@ final class CheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
+        RunRequest req = request();
+        RunOutcome outcome = Runner.run(req, Runner.Progress.NONE);
+        GateResult result = outcome.result();
+        PrintWriter out = spec.commandLine().getOut();
+        for (String n : result.notes()) {
+            out.println("note: " + n);
+        }
+        if (result.baselineNote() != null && !writeBaseline) {
+            out.println("note: " + result.baselineNote() + "; create it with --write-baseline and commit it");
+            out.println();
+        }
+        out.print(Reports.console(result, top));
+        if (req.writesReports()) {
+            int n = outcome.reports().size();
+            out.println("reports written to " + reportDir + " (" + n + (n == 1 ? " file)" : " files)"));
+        }
+        if (outcome.baselineSummary() != null) {
+            out.println(outcome.baselineSummary());
+        }
+        if (!result.passed() && !outcome.failed()) {
+            int n = result.failures().size();
+            out.println("note: " + n + (n == 1 ? " limit does" : " limits do")
+                    + " not hold; --no-fail-on-violation keeps the exit status 0");
+        }
+        out.flush();
+        return outcome.failed() ? Main.VIOLATION : Main.OK;
+    }
+
+    /** The options as the library's run request; a malformed option is a usage error. */
+    RunRequest request() {
         Map<String, Long> bound = modelOptions.bound(spec);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
@@ -103,44 +145,34 @@ final class CheckCommand implements Callable<Integer> {
         }
         Options.positive(spec, "--target-fps", targetFps);
         Options.positive(spec, "--max-power-mw", maxPowerMw);
-        Options.positive(spec, "--max-energy-uj", maxEnergyUj);
+        Options.positive(spec, "--max-energy-per-frame-uj", maxEnergyPerFrameUj);
         Options.positive(spec, "--max-latency-ms", maxLatencyMs);
         Options.positive(spec, "--max-weight-kib", maxWeightKib);
         Options.positive(spec, "--max-activation-kib", maxActivationKib);
-        Set<String> formatSet = Reports.parseFormats(formats);
-        Budget budget = Budget.builder().targetFps(targetFps).maxPowerMw(maxPowerMw).maxEnergyPerFrameUj(maxEnergyUj)
-                .maxLatencyMs(maxLatencyMs).maxWeightKib(maxWeightKib).maxActivationKib(maxActivationKib).build();
-        List<DeviceProfile> profiles = new ArrayList<>();
-        for (String d : devices) {
-            profiles.add(DeviceLoader.load(d, null));
-        }
-        List<Gate.ModelSpec> specs = new ArrayList<>();
+        Budget options = Budget.builder().targetFps(targetFps).maxPowerMw(maxPowerMw)
+                .maxEnergyPerFrameUj(maxEnergyPerFrameUj).maxLatencyMs(maxLatencyMs).maxWeightKib(maxWeightKib)
+                .maxActivationKib(maxActivationKib).build();
+        List<ModelSpec> specs = new ArrayList<>();
         for (Path m : models) {
-            specs.add(new Gate.ModelSpec(m.toString(), m, bound));
+            specs.add(new ModelSpec(m.toString(), m, bound));
         }
-        Baseline base = baseline == null ? null : Baseline.read(baseline);
-        GateResult result = Gate.evaluate(specs, profiles, budget, base, baseline == null ? null : baseline.toString(),
-                writeBaseline ? null : maxGrowthPercent, line -> { }, modelOptions.analysis());
-        PrintWriter out = spec.commandLine().getOut();
-        for (String n : result.notes()) {
-            out.println("note: " + n);
+        RunRequest.Builder b = RunRequest.builder().failOnUnmodelled(modelOptions.failOnUnmodelled)
+                .failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);
+        if (baseline != null) {
+            b.baseline(baseline.toString(), baseline);
         }
-        if (result.baselineNote() != null && !writeBaseline) {
-            out.println("note: " + result.baselineNote());
-            out.println();
-        }
-        out.print(Reports.console(result, top));
+        java.util.Set<String> formatSet = Reports.parseFormats(formats);
         if (reportDir != null) {
-            List<Path> files = Reports.write(result, reportDir, formatSet);
-            out.println("reports written to " + reportDir + " (" + files.size() + (files.size() == 1 ? " file)" : " files)"));
+            b.reports(reportDir, formatSet);
         }
-        if (writeBaseline) {
-            Baseline fresh = Baseline.of(result.pairs()).over(Baseline.read(baseline));
-            fresh.write(baseline);
-            out.println("baseline written to " + baseline + " (" + result.pairs().size()
-                    + (result.pairs().size() == 1 ? " entry" : " entries") + " refreshed, " + fresh.size() + " in all)");
+        if (budgetFile != null) {
+            BudgetFile.read(budgetFile).apply(b, options, specs, devices);
+        } else {
+            b.budget(options).models(specs);
+            for (String d : devices) {
+                b.device(new DeviceSpec(d));
+            }
         }
-        out.flush();
-        return result.passed() ? Main.OK : Main.BUDGET_BREACH;
+        return b.build().validate();
     }
 }

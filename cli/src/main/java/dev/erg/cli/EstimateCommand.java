@@ -55,7 +55,7 @@ final class EstimateCommand implements Callable<Integer> {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
         DeviceProfile profile = DeviceLoader.load(device, null);
-        ModelWorkload w = Analyzer.analyze(model, bound, modelOptions.analysis());
+        ModelWorkload w = Analyzer.analyze(model, bound);
         DeviceEstimate e = Estimator.estimate(w, profile);
         PrintWriter out = spec.commandLine().getOut();
         out.print(ConsoleReport.estimate(e, fps, top));
@@ -71,6 +71,6 @@ final class EstimateCommand implements Callable<Integer> {
             out.println("note: " + n);
         }
         out.flush();
-        return Main.OK;
+        return modelOptions.verdict(w, spec.commandLine().getErr());
     }
 }

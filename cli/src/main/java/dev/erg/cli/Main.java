@@ -1,6 +1,7 @@
 package dev.erg.cli;
 
 import dev.erg.error.BadInputException;
+import dev.erg.graph.UnboundDimException;
 import java.io.IOException;
 import java.io.InputStream;
 import java.io.PrintWriter;
@@ -11,9 +12,9 @@ import picocli.CommandLine;
 import picocli.CommandLine.Command;
 
 /**
- * The {@code erg} command. Exit codes: 0 success; 1 a budget or growth limit broken ({@code erg
- * check}); 2 bad input or bad options, with one line on stderr; 3 an internal error, with one line
- * on stderr.
+ * The {@code erg} command. Exit codes: 0 success; 1 a violation: a budget, growth or policy limit
+ * broken (unless {@code --no-fail-on-violation}); 2 bad input or bad options, with one line on stderr;
+ * 3 an internal error, with one line on stderr.
  */
 @Command(name = "erg", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node, estimates its"
@@ -22,8 +23,8 @@ import picocli.CommandLine.Command;
                 CommandLine.HelpCommand.class})
 public final class Main implements Callable<Integer> {
     public static final int OK = 0;
-    /** A budget or growth limit is broken. */
-    public static final int BUDGET_BREACH = 1;
+    /** A budget, growth or policy limit is broken. */
+    public static final int VIOLATION = 1;
     public static final int BAD_INPUT = 2;
     public static final int INTERNAL_ERROR = 3;
 
@@ -66,6 +67,10 @@ public final class Main implements Callable<Integer> {
 
     /** Prints the one line for {@code e} and returns its exit code. */
     static int failure(Throwable e, PrintWriter err) {
+        if (e instanceof UnboundDimException u) {
+            err.println("erg: " + oneLine(e.getMessage()) + "; bind it with --dim " + u.dim() + "=N");
+            return BAD_INPUT;
+        }
         if (e instanceof BadInputException) {
             err.println("erg: " + oneLine(e.getMessage()));
             return BAD_INPUT;

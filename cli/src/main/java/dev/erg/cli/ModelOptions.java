@@ -1,6 +1,7 @@
 package dev.erg.cli;
 
-import dev.erg.analysis.AnalysisOptions;
+import dev.erg.workload.ModelWorkload;
+import java.io.PrintWriter;
 import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
@@ -14,7 +15,8 @@ final class ModelOptions {
     List<String> dims = new ArrayList<>();
 
     @Option(names = "--fail-on-unmodelled",
-            description = "Fails (exit 2, one line listing them) when some operator has no rule, instead of listing it.")
+            description = "Makes an operator without a rule a policy violation (exit 1, listed with the others)"
+                    + " instead of a note.")
     boolean failOnUnmodelled;
 
     /** The bindings, parsed and checked; a malformed one is a usage error of {@code spec}. */
@@ -22,7 +24,16 @@ final class ModelOptions {
         return Options.dims(spec, dims);
     }
 
-    AnalysisOptions analysis() {
-        return new AnalysisOptions(failOnUnmodelled);
+    /**
+     * The exit status of a command that printed {@code w}: with {@code --fail-on-unmodelled} and a node
+     * without a rule, the policy violation on stderr and {@link Main#VIOLATION}.
+     */
+    int verdict(ModelWorkload w, PrintWriter err) {
+        if (failOnUnmodelled && !w.complete()) {
+            err.println("erg: 1 policy violation: " + w.incompleteness()
+                    + "; --fail-on-unmodelled requires every node to be modelled");
+            return Main.VIOLATION;
+        }
+        return Main.OK;
     }
 }

@@ -1,5 +1,7 @@
 package dev.erg.cli;
 
+import dev.erg.error.BadInputException;
+import dev.erg.run.ModelSpec;
 import java.io.IOException;
 import java.nio.file.AccessDeniedException;
 import java.nio.file.FileAlreadyExistsException;
@@ -24,15 +26,11 @@ final class Options {
                 throw usage(spec, "--dim '" + s + "' is not NAME=VALUE (e.g. --dim batch=1)");
             }
             String name = s.substring(0, eq).trim();
-            String value = s.substring(eq + 1).trim();
             long v;
             try {
-                v = Long.parseLong(value);
-            } catch (NumberFormatException e) {
-                throw usage(spec, "--dim " + name + ": '" + value + "' is not a whole number");
-            }
-            if (v < 1) {
-                throw usage(spec, "--dim " + name + ": the value " + v + " is below 1; a dim must be at least 1");
+                v = ModelSpec.parseDim("--dim " + name, s.substring(eq + 1));
+            } catch (BadInputException e) {
+                throw usage(spec, e.getMessage());
             }
             if (out.put(name, v) != null) {
                 throw usage(spec, "--dim " + name + " is given twice");

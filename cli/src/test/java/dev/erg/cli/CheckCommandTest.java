@@ -88,7 +88,7 @@ class CheckCommandTest {
                 "--write-baseline");
         assertEquals(0, w.code, w.toString());
         assertFalse(w.out.contains("note:"), w.out);
-        assertTrue(w.out.contains("baseline written to " + base + " (1 entry refreshed, 1 in all)"), w.out);
+        assertTrue(w.out.contains("baseline written: " + base + " (1 entry refreshed, 1 in all)"), w.out);
         assertTrue(Files.exists(base));
         CliRun same = CliRun.of("check", small.toString(), "--device", "preset:feeder-npu", "--baseline",
                 base.toString(), "--max-growth-percent", "5");

@@ -28,8 +28,17 @@ class IncompleteCheckTest {
                 + " (1 node); unresolved downstream: Relu (1 node). Those nodes are not priced"), pass.out);
         CliRun refused = CliRun.of("check", model.toString(), "--device", "preset:feeder-npu", "--target-fps", "4",
                 "--fail-on-unmodelled");
-        assertEquals(2, refused.code, refused.toString());
-        assertEquals("erg: " + model + ": the analysis is incomplete: no rule for com.example.FancyAct (1 node);"
-                + " unresolved downstream: Relu (1 node)\n", refused.err);
+        // A policy violation, listed with the budget's checks: exit 1, not bad input.
+        assertEquals(1, refused.code, refused.toString());
+        assertEquals("", refused.err);
+        String violation = model + " on preset:feeder-npu: the analysis is incomplete: no rule for com.example.FancyAct"
+                + " (1 node); unresolved downstream: Relu (1 node); the policy requires every node to be modelled";
+        assertTrue(refused.out.contains("\n  FAIL " + violation + "\n"), refused.out);
+        assertTrue(refused.out.contains("\nerg: 1 policy violation:\n  - " + violation + "\n"), refused.out);
+        // Report-only: the same violation is listed, the exit status stays 0.
+        CliRun reportOnly = CliRun.of("check", model.toString(), "--device", "preset:feeder-npu", "--target-fps", "4",
+                "--fail-on-unmodelled", "--no-fail-on-violation");
+        assertEquals(0, reportOnly.code, reportOnly.toString());
+        assertTrue(reportOnly.out.contains("\n  FAIL " + violation + "\n"), reportOnly.out);
     }
 }

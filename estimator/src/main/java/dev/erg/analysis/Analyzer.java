@@ -48,8 +48,8 @@ public final class Analyzer {
     public static java.util.List<String> unusedDimNotes(ModelWorkload w, Map<String, Long> dims) {
         java.util.List<String> notes = new java.util.ArrayList<>();
         for (String name : new java.util.TreeSet<>(dims.keySet())) {
-            if (!w.graph().boundDims().containsKey(name)) {
-                notes.add(w.graph().fileLabel() + ": the dimension '" + name
+            if (!w.info().boundDims().containsKey(name)) {
+                notes.add(w.info().fileLabel() + ": the dimension '" + name
                         + "' is bound, but no graph input has a symbolic dim of that name; the binding is unused");
             }
         }

@@ -54,13 +54,15 @@ public final class GateResult {
         return baselineFound;
     }
 
-    /** A sentence for the log when a baseline is configured but missing, else null. */
+    /**
+     * A sentence for the log when a baseline is configured but missing, else null. Front ends add how
+     * to create it with their own command.
+     */
     public String baselineNote() {
         if (baselineFile == null || baselineFound) {
             return null;
         }
-        return "no baseline at " + baselineFile + ": growth is not checked; create it with 'mvn erg:baseline'"
-                + " (or 'erg check ... --write-baseline') and commit it";
+        return "no baseline at " + baselineFile + ": growth is not checked";
     }
 
     public List<Check> failures() {
@@ -75,8 +77,30 @@ public final class GateResult {
         return out;
     }
 
+    /** The checks that hold by less than the estimate's uncertainty, in order. */
+    public List<Check> atRisk() {
+        List<Check> out = new ArrayList<>();
+        for (PairResult p : pairs) {
+            for (Check c : p.checks()) {
+                if (c.verdict() == Verdict.AT_RISK) {
+                    out.add(c);
+                }
+            }
+        }
+        return out;
+    }
+
     public boolean passed() {
         return failures().isEmpty();
+    }
+
+    /** The worst verdict of every pair; PASS when nothing was checked. */
+    public Verdict verdict() {
+        Verdict v = Verdict.PASS;
+        for (PairResult p : pairs) {
+            v = v.and(p.verdict());
+        }
+        return v;
     }
 
     /** Every violation, one per line, for the build failure. */
@@ -84,14 +108,26 @@ public final class GateResult {
         List<Check> f = failures();
         StringBuilder b = new StringBuilder();
         long growth = f.stream().filter(c -> c.kind() == Check.Kind.GROWTH).count();
-        long budget = f.size() - growth;
-        if (growth == 0) {
+        long policy = f.stream().filter(c -> c.kind() == Check.Kind.POLICY).count();
+        long budget = f.size() - growth - policy;
+        if (growth == 0 && policy == 0) {
             b.append(f.size()).append(f.size() == 1 ? " budget violation:" : " budget violations:");
-        } else if (budget == 0) {
+        } else if (budget == 0 && policy == 0) {
             b.append(f.size()).append(f.size() == 1 ? " growth violation" : " growth violations").append(" over the baseline:");
+        } else if (budget == 0 && growth == 0) {
+            b.append(f.size()).append(f.size() == 1 ? " policy violation:" : " policy violations:");
         } else {
-            b.append(f.size()).append(" violations (").append(budget).append(" budget, ").append(growth)
-                    .append(" growth over the baseline):");
+            List<String> parts = new ArrayList<>();
+            if (budget > 0) {
+                parts.add(budget + " budget");
+            }
+            if (growth > 0) {
+                parts.add(growth + " growth over the baseline");
+            }
+            if (policy > 0) {
+                parts.add(policy + " policy");
+            }
+            b.append(f.size()).append(" violations (").append(String.join(", ", parts)).append("):");
         }
         for (Check c : f) {
             b.append("\n  - ").append(c.message());

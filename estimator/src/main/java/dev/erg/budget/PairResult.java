@@ -10,12 +10,14 @@ public final class PairResult {
     private final String device;
     private final DeviceEstimate estimate;
     private final double fps;
+    private final Budget budget;
     private final List<Check> checks;
     private final List<LayerDiff> diff;
     private final boolean hasBaseline;
 
-    PairResult(String model, String device, DeviceEstimate estimate, double fps, List<Check> checks,
+    PairResult(String model, String device, DeviceEstimate estimate, double fps, Budget budget, List<Check> checks,
                List<LayerDiff> diff, boolean hasBaseline) {
+        this.budget = budget;
         this.model = model;
         this.device = device;
         this.estimate = estimate;
@@ -48,12 +50,27 @@ public final class PairResult {
         return fps;
     }
 
+    /** The budget this pair was held to: its model's and device's limits over the run's. */
+    public Budget budget() {
+        return budget;
+    }
+
     public List<Check> checks() {
         return checks;
     }
 
+    /** True unless some check failed. */
     public boolean passed() {
         return checks.stream().allMatch(Check::passed);
+    }
+
+    /** The worst verdict of the checks; PASS when there is none. */
+    public Verdict verdict() {
+        Verdict v = Verdict.PASS;
+        for (Check c : checks) {
+            v = v.and(c.verdict());
+        }
+        return v;
     }
 
     /** Layers added, removed or changed since the baseline (empty without one). */

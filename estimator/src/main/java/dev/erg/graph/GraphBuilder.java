@@ -387,9 +387,8 @@ public final class GraphBuilder {
             } else if (d.param() != null) {
                 Long bound = dimBindings.get(d.param());
                 if (bound == null) {
-                    throw bad("graph input '" + in.name() + "' has the symbolic dim '" + d.param()
-                            + "' (axis " + k + ") with no value; bind it (CLI: --dim " + d.param() + "=N; Maven: <dimensions><"
-                            + d.param() + ">N</" + d.param() + "></dimensions>)");
+                    throw new UnboundDimException(file + ": graph input '" + in.name() + "' has the symbolic dim '"
+                            + d.param() + "' (axis " + k + ") with no value", d.param());
                 }
                 if (bound < 1) {
                     throw bad("symbolic dim '" + d.param() + "' is bound to " + bound + "; a dim must be at least 1");

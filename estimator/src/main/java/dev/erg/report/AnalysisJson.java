@@ -4,7 +4,7 @@ import com.fasterxml.jackson.core.JsonEncoding;
 import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonGenerator;
 import com.fasterxml.jackson.core.PrettyPrinter;
-import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.ModelInfo;
 import dev.erg.workload.Kind;
 import dev.erg.workload.ModelWorkload;
 import dev.erg.workload.NodeWork;
@@ -105,14 +105,14 @@ public final class AnalysisJson {
     }
 
     private static void model(JsonGenerator g, ModelWorkload w) throws IOException {
-        OnnxModel m = Format.model(w);
+        ModelInfo m = Format.model(w);
         g.writeObjectFieldStart("model");
-        g.writeStringField("file", m == null ? "" : m.file().toString());
-        g.writeNumberField("opset", m == null ? 0 : m.defaultOpset());
-        g.writeStringField("producer", m == null ? "" : m.producerName());
-        g.writeStringField("producerVersion", m == null ? "" : m.producerVersion());
-        g.writeNumberField("irVersion", m == null ? 0 : m.irVersion());
-        g.writeStringField("graph", m == null || m.graph() == null ? "" : m.graph().name());
+        g.writeStringField("file", m.file() == null ? "" : m.file().toString());
+        g.writeNumberField("opset", m.defaultOpset());
+        g.writeStringField("producer", m.producer());
+        g.writeStringField("producerVersion", m.producerVersion());
+        g.writeNumberField("irVersion", m.irVersion());
+        g.writeStringField("graph", m.graphName());
         longMap(g, "opsets", Format.opsets(m));
         longMap(g, "dims", Format.dims(w));
         g.writeEndObject();
@@ -155,7 +155,7 @@ public final class AnalysisJson {
             } else {
                 g.writeStringField("weightPrecision", n.weightPrecision());
             }
-            String domain = n.node().domain();
+            String domain = n.domain();
             if (!domain.isEmpty()) {
                 g.writeStringField("domain", domain);
             }

@@ -1,6 +1,6 @@
 package dev.erg.report;
 
-import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.ModelInfo;
 import dev.erg.workload.Kind;
 import dev.erg.workload.ModelWorkload;
 import dev.erg.workload.NodeWork;
@@ -43,11 +43,11 @@ public final class AnalysisTable {
     }
 
     private static void header(StringBuilder out, ModelWorkload w) {
-        OnnxModel m = Format.model(w);
-        String producer = m == null ? "" : (m.producerName() + " " + m.producerVersion()).trim();
-        out.append("model: ").append(m == null ? "?" : m.file().toString())
+        ModelInfo m = Format.model(w);
+        String producer = (m.producer() + " " + m.producerVersion()).trim();
+        out.append("model: ").append(m.file() == null ? "?" : m.file().toString())
                 .append("  ").append("producer: ").append(producer.isEmpty() ? "(none)" : producer)
-                .append("  ").append("opset: ").append(m == null ? 0 : m.defaultOpset());
+                .append("  ").append("opset: ").append(m.defaultOpset());
         if (m != null) {
             out.append("  ").append("IR: ").append(m.irVersion());
         }

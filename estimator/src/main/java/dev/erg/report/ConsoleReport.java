@@ -41,8 +41,14 @@ public final class ConsoleReport {
 
     /** One pair: its table, totals, checks and verdict line. */
     static String pair(PairResult p, int top) {
+        return pair(Figures.of(p), top);
+    }
+
+    /** As {@link #pair(PairResult, int)}, from the pair's view. */
+    static String pair(Figures f, int top) {
+        PairResult p = f.pair;
         StringBuilder b = new StringBuilder();
-        pair(b, Figures.of(p), top);
+        pair(b, f, top);
         for (Check c : p.checks()) {
             b.append("  ").append(c.passed() ? "ok   " : "FAIL ").append(c.message()).append('\n');
         }
@@ -53,9 +59,9 @@ public final class ConsoleReport {
     /** An estimate alone ({@code erg estimate}): the table and the totals; power at {@code fps} (null: back to back). */
     public static String estimate(DeviceEstimate e, Double fps, int top) {
         checkTop(top);
-        dev.erg.onnx.OnnxModel m = Format.model(e.workload());
+        dev.erg.workload.ModelInfo m = Format.model(e.workload());
         StringBuilder b = new StringBuilder();
-        pair(b, Figures.of(m == null ? "?" : m.file().toString(), e.device().id(), e, fps), top);
+        pair(b, Figures.of(m.file() == null ? "?" : m.file().toString(), e.device().id(), e, fps), top);
         b.append('\n').append(AnalysisJson.NOTICE).append('\n');
         return b.toString();
     }
@@ -95,13 +101,13 @@ public final class ConsoleReport {
         } else {
             b.append(shown.size() == ranked.size() ? "All " + plural(ranked.size(), "layer")
                     : "Top " + shown.size() + " of " + ranked.size() + " layers").append(" by energy (energy in µJ)\n");
-            TextTable t = new TextTable(">#", "layer", "op", ">MACs", ">util", ">lat µs", ">compute", ">regs",
+            TextTable t = new TextTable(">#", "layer", "op", ">MACs", ">utilisation", ">latency µs", ">compute", ">registers",
                     ">SRAM", ">DRAM", ">static", ">total", ">share", "bound");
             int rank = 0;
             for (NodeEstimate n : shown) {
                 Energy en = n.energy();
                 t.row(Integer.toString(++rank), plain(AnalysisTable.shorten(n.name(), AnalysisTable.NAME_WIDTH)),
-                        plain(n.work().opType()), Format.count(n.work().macs()), utilization(n),
+                        plain(n.work().opType()), Format.count(n.work().macs()), utilisation(n),
                         Format.sig(n.latencySeconds() * 1e6), uj(en.compute()), uj(en.registers()), uj(en.sram()),
                         uj(en.dram()), uj(en.staticEnergy()), uj(en.total()), Format.percent(f.energyShare(n)),
                         bound(n));
@@ -138,7 +144,7 @@ public final class ConsoleReport {
         return b.toString();
     }
 
-    static String utilization(NodeEstimate n) {
+    static String utilisation(NodeEstimate n) {
         return n.work().macs() > 0 ? Format.percent(n.utilization()) : "-";
     }
 

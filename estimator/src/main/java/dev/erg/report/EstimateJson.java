@@ -2,6 +2,7 @@ package dev.erg.report;
 
 import com.fasterxml.jackson.core.JsonGenerator;
 import dev.erg.budget.Budget;
+import dev.erg.budget.BudgetRules;
 import dev.erg.budget.Check;
 import dev.erg.budget.GateResult;
 import dev.erg.budget.LayerDiff;
@@ -13,7 +14,7 @@ import dev.erg.device.Memory;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Energy;
 import dev.erg.estimate.NodeEstimate;
-import dev.erg.onnx.OnnxModel;
+import dev.erg.workload.ModelInfo;
 import dev.erg.workload.NodeWork;
 import java.io.ByteArrayOutputStream;
 import java.io.IOException;
@@ -33,7 +34,7 @@ import java.nio.file.Path;
  *       "weightsResident", "residentWeightBytes", "deviceWeightBytes", "deviceActivationPeakBytes",
  *       "dramBytesPerFrame" },
  *   "nodes": [ { ...analysis..., then, for a node that runs on the device,
- *       "estimate": { "engine", "precision", "latencySeconds", "utilization", "bound", "computeCycles",
+ *       "estimate": { "engine", "precision", "latencySeconds", "utilisation", "bound", "computeCycles",
  *                     "bytes": { "registerRead", "registerWrite", "sramRead", "sramWrite", "dramRead", "dramWrite" },
  *                     "energyJoules": { "compute", "registers", "sram", "dram", "static", "total" },
  *                     "fusedInto"?, "tiling"?,
@@ -55,8 +56,8 @@ public final class EstimateJson {
 
     /** The estimate document; power is taken at {@code fps}, or with frames back to back when null. */
     public static byte[] toBytes(DeviceEstimate e, Double fps) {
-        OnnxModel m = Format.model(e.workload());
-        return bytes(Figures.of(m == null ? "" : m.file().toString(), e.device().id(), e, fps), null);
+        ModelInfo m = Format.model(e.workload());
+        return bytes(Figures.of(m.file() == null ? "" : m.file().toString(), e.device().id(), e, fps), null);
     }
 
     /** Writes the estimate document to {@code file}, creating its parent folders. */
@@ -149,7 +150,7 @@ public final class EstimateJson {
             g.writeStringField("engine", n.engine());
             g.writeStringField("precision", n.precision());
             num(g, "latencySeconds", n.latencySeconds());
-            num(g, "utilization", n.utilization());
+            num(g, "utilisation", n.utilization());
             g.writeStringField("bound", n.bound().label);
             g.writeNumberField("computeCycles", n.computeCycles());
             g.writeObjectFieldStart("bytes");
@@ -233,14 +234,11 @@ public final class EstimateJson {
 
         private void gate(JsonGenerator g) throws IOException {
             PairResult p = f.pair;
-            Budget b = gate.budget();
+            Budget b = p.budget();
             g.writeObjectFieldStart("budget");
-            optional(g, "targetFps", b.targetFps());
-            optional(g, "maxPowerMw", b.maxPowerMw());
-            optional(g, "maxEnergyPerFrameUj", b.maxEnergyPerFrameUj());
-            optional(g, "maxLatencyMs", b.maxLatencyMs());
-            optional(g, "maxWeightKib", b.maxWeightKib());
-            optional(g, "maxActivationKib", b.maxActivationKib());
+            for (String key : BudgetRules.keys()) {
+                optional(g, key, b.limit(key));
+            }
             g.writeEndObject();
             g.writeObjectFieldStart("baseline");
             nullableString(g, "file", gate.baselineFile());
@@ -252,14 +250,15 @@ public final class EstimateJson {
             for (Check c : p.checks()) {
                 g.writeStartObject();
                 g.writeStringField("kind", c.kind().label);
-                g.writeStringField("metric", c.metric().key);
-                g.writeStringField("unit", c.metric().unit);
+                g.writeStringField("metric", c.subject());
+                g.writeStringField("unit", c.unit());
                 num(g, "value", c.value());
                 num(g, "limit", c.limit());
                 if (c.kind() == Check.Kind.GROWTH) {
                     num(g, "baseline", c.baseline());
                 }
                 g.writeBooleanField("passed", c.passed());
+                g.writeStringField("verdict", c.verdict().label);
                 g.writeStringField("message", c.message());
                 g.writeArrayFieldStart("topLayers");
                 for (LayerShare s : c.topLayers()) {

@@ -6,67 +6,73 @@ import dev.erg.budget.LayerShare;
 import dev.erg.budget.Metric;
 import dev.erg.budget.PairResult;
 import dev.erg.workload.Kind;
-import java.util.ArrayList;
-import java.util.List;
+import java.io.StringWriter;
+import javax.xml.stream.XMLOutputFactory;
+import javax.xml.stream.XMLStreamException;
+import javax.xml.stream.XMLStreamWriter;
 
 /**
  * A JUnit-style XML report of one model x device pair, so that CI servers list every limit as a test
- * case. The document is one {@code <testsuite name="erg.STEM">} with a {@code <properties>} block
- * (model, device, device name, frame rate, notice), one {@code <testcase classname="erg.STEM"
- * name="KIND.METRIC">} per check (e.g. {@code budget.frameRate}, {@code baseline.macs}), and the
- * pair's console text as {@code <system-out>}. A failed check holds {@code <failure message="THE
- * CHECK'S MESSAGE" type="budget|growth">} with the layers that contribute most as its text.
+ * case, written with the JDK's {@link XMLStreamWriter}. The document has the common shape that Apache
+ * Ant's JUnit task writes (and the published schema of it describes): one
+ * {@code <testsuite name="erg.STEM">} with a {@code <properties>} block (model, device, device name,
+ * frame rate, notice), one {@code <testcase classname="erg.STEM" name="KIND.SUBJECT">} per check
+ * (e.g. {@code budget.frameRate}, {@code growth.macs}, {@code policy.modelled}), the pair's console
+ * text as {@code <system-out>} and the pair's warnings as {@code <system-err>}. A failed check holds
+ * {@code <failure message="THE CHECK'S MESSAGE" type="budget|growth|policy">} with the layers that
+ * contribute most as its text.
  *
- * <p>A pair with no check still gets one test case, {@code estimate.complete}: it passes when every
- * node was priced and is skipped (with the unpriced operators as its message) when the estimate is
- * incomplete, since an incomplete estimate is a warning, not a verdict. Times are 0: a check is a
- * comparison, not a timed test, and a fixed time keeps the file deterministic. The shape is the one
- * in {@code dev/erg/report/junit.xsd}.
+ * <p>A pair with no check still gets one test case, {@code estimate}, which passes: an incomplete
+ * estimate is a warning, not a verdict (unless a policy makes it one), and it is written to
+ * {@code <system-err>}. Times are 0 and the timestamp is the epoch: a check is a computation, not a
+ * timed test, and fixed values keep the file byte-identical for the same inputs; the host name is
+ * {@code localhost}, the shape's own fallback.
  */
 public final class JUnitReport {
+    /** The fixed timestamp (ISO 8601 without zone, as the shape requires). */
+    static final String TIMESTAMP = "1970-01-01T00:00:00";
+
     private JUnitReport() {
     }
 
     /** The XML document of one pair. */
     public static String render(GateResult result, PairResult p) {
-        String stem = Reports.stem(p);
-        return render(result, p, stem);
+        return render(Figures.of(p), result, Reports.stem(p));
     }
 
-    static String render(GateResult result, PairResult p, String stem) {
-        String suite = "erg." + stem;
-        List<String> cases = new ArrayList<>();
+    static String render(Figures f, GateResult result, String stem) {
+        StringWriter out = new StringWriter();
+        try {
+            XMLStreamWriter x = XMLOutputFactory.newFactory().createXMLStreamWriter(out);
+            write(x, result, f, "erg." + stem);
+            x.flush();
+            x.close();
+        } catch (XMLStreamException e) {
+            throw new IllegalStateException("cannot write the JUnit report", e);
+        }
+        return out.toString();
+    }
+
+    private static void write(XMLStreamWriter x, GateResult result, Figures f, String suite)
+            throws XMLStreamException {
+        PairResult p = f.pair;
         int failures = 0;
-        int skipped = 0;
         for (Check c : p.checks()) {
-            StringBuilder t = new StringBuilder();
-            t.append("  <testcase name=\"").append(xml(c.kind().label + "." + c.metric().key)).append("\" classname=\"")
-                    .append(xml(suite)).append("\" time=\"0\"");
-            if (c.passed()) {
-                t.append("/>\n");
-            } else {
-                failures++;
-                t.append(">\n    <failure message=\"").append(attr(c.message())).append("\" type=\"")
-                        .append(c.kind() == Check.Kind.BUDGET ? "budget" : "growth").append("\">")
-                        .append(xml(failureText(c))).append("</failure>\n  </testcase>\n");
-            }
-            cases.add(t.toString());
+            failures += c.passed() ? 0 : 1;
         }
-        if (p.checks().isEmpty()) {
-            StringBuilder t = new StringBuilder();
-            t.append("  <testcase name=\"estimate.complete\" classname=\"").append(xml(suite)).append("\" time=\"0\"");
-            if (p.estimate().complete()) {
-                t.append("/>\n");
-            } else {
-                skipped++;
-                t.append(">\n    <skipped message=\"").append(attr(incomplete(p))).append("\"/>\n  </testcase>\n");
-            }
-            cases.add(t.toString());
-        }
-        StringBuilder x = new StringBuilder();
-        x.append("<?xml version=\"1.0\" encoding=\"UTF-8\"?>\n<testsuite name=\"").append(xml(suite))
-                .append("\" tests=\"").append(cases.size()).append("\" failures=\"").append(failures)
-                .append("\" errors=\"0\" skipped=\"").append(skipped).append("\" time=\"0\">\n  <properties>\n");
+        int tests = Math.max(1, p.checks().size());
+        x.writeStartDocument("UTF-8", "1.0");
+        x.writeCharacters("\n");
+        x.writeStartElement("testsuite");
+        x.writeAttribute("name", clean(suite));
+        x.writeAttribute("timestamp", TIMESTAMP);
+        x.writeAttribute("hostname", "localhost");
+        x.writeAttribute("tests", Integer.toString(tests));
+        x.writeAttribute("failures", Integer.toString(failures));
+        x.writeAttribute("errors", "0");
+        x.writeAttribute("time", "0");
+        x.writeCharacters("\n  ");
+        x.writeStartElement("properties");
         property(x, "model", p.model());
         property(x, "device", p.device());
         property(x, "deviceName", p.estimate().device().name());
@@ -76,17 +82,53 @@ public final class JUnitReport {
             property(x, "baseline", result.baselineFile());
         }
         property(x, "notice", AnalysisJson.NOTICE);
-        x.append("  </properties>\n");
-        for (String c : cases) {
-            x.append(c);
+        x.writeCharacters("\n  ");
+        x.writeEndElement();
+        for (Check c : p.checks()) {
+            x.writeCharacters("\n  ");
+            testcase(x, suite, c.key());
+            if (!c.passed()) {
+                x.writeCharacters("\n    ");
+                x.writeStartElement("failure");
+                x.writeAttribute("message", clean(c.message()));
+                x.writeAttribute("type", c.kind().label);
+                x.writeCharacters(clean(failureText(c)));
+                x.writeEndElement();
+                x.writeCharacters("\n  ");
+            }
+            x.writeEndElement();
         }
-        x.append("  <system-out>").append(xml(ConsoleReport.pair(p, ConsoleReport.DEFAULT_TOP)))
-                .append("</system-out>\n</testsuite>\n");
-        return x.toString();
+        if (p.checks().isEmpty()) {
+            x.writeCharacters("\n  ");
+            testcase(x, suite, "estimate");
+            x.writeEndElement();
+        }
+        x.writeCharacters("\n  ");
+        x.writeStartElement("system-out");
+        x.writeCharacters(clean(ConsoleReport.pair(f, ConsoleReport.DEFAULT_TOP)));
+        x.writeEndElement();
+        x.writeCharacters("\n  ");
+        x.writeStartElement("system-err");
+        x.writeCharacters(p.estimate().complete() ? "" : clean(incomplete(p)));
+        x.writeEndElement();
+        x.writeCharacters("\n");
+        x.writeEndElement();
+        x.writeCharacters("\n");
+        x.writeEndDocument();
     }
 
-    private static void property(StringBuilder x, String name, String value) {
-        x.append("    <property name=\"").append(attr(name)).append("\" value=\"").append(attr(value)).append("\"/>\n");
+    private static void testcase(XMLStreamWriter x, String suite, String name) throws XMLStreamException {
+        x.writeStartElement("testcase");
+        x.writeAttribute("name", clean(name));
+        x.writeAttribute("classname", clean(suite));
+        x.writeAttribute("time", "0");
+    }
+
+    private static void property(XMLStreamWriter x, String name, String value) throws XMLStreamException {
+        x.writeCharacters("\n    ");
+        x.writeEmptyElement("property");
+        x.writeAttribute("name", clean(name));
+        x.writeAttribute("value", clean(value));
     }
 
     private static String failureText(Check c) {
@@ -97,7 +139,7 @@ public final class JUnitReport {
                 b.append("\n  ").append(s.name()).append(" (").append(s.opType()).append(") ");
                 if (c.kind() == Check.Kind.GROWTH) {
                     b.append(c.metric() == Metric.MACS ? Format.signedExact(Math.round(s.value()))
-                            : Format.signed(s.value())).append(' ').append(c.metric().unit);
+                            : Format.signed(s.value())).append(' ').append(c.unit());
                 } else {
                     b.append(Format.percent(s.share()));
                 }
@@ -112,59 +154,27 @@ public final class JUnitReport {
                 + p.workload().unmodelled().keySet() + ")";
     }
 
-    /** Text for a double-quoted attribute: as {@link #xml}, line feeds as character references. */
-    static String attr(String s) {
-        return xml(s).replace("\n", "&#10;");
-    }
-
     /**
-     * Text for XML content and double-quoted attributes. Characters XML 1.0 does not allow become
-     * U+FFFD; tab, line feed and carriage return in attributes are written as character references
-     * so that they survive attribute normalisation.
+     * {@code s} with every character XML 1.0 does not allow (control characters, lone surrogates,
+     * U+FFFE, U+FFFF) as U+FFFD; the stream writer escapes the markup characters itself.
      */
-    static String xml(String s) {
+    static String clean(String s) {
         if (s == null) {
             return "";
         }
-        StringBuilder b = new StringBuilder(s.length() + 16);
+        StringBuilder b = new StringBuilder(s.length());
         for (int i = 0; i < s.length(); i++) {
             char c = s.charAt(i);
-            switch (c) {
-                case '&':
-                    b.append("&amp;");
-                    break;
-                case '<':
-                    b.append("&lt;");
-                    break;
-                case '>':
-                    b.append("&gt;");
-                    break;
-                case '"':
-                    b.append("&quot;");
-                    break;
-                case '\'':
-                    b.append("&apos;");
-                    break;
-                case '\t':
-                    b.append("&#9;");
-                    break;
-                case '\r':
-                    b.append("&#13;");
-                    break;
-                case '\n':
-                    b.append('\n');
-                    break;
-                default:
-                    if (c < 0x20 || c == '\uFFFE' || c == '\uFFFF') {
-                        b.append('\uFFFD');
-                    } else if (Character.isHighSurrogate(c) && i + 1 < s.length()
-                            && Character.isLowSurrogate(s.charAt(i + 1))) {
-                        b.append(c).append(s.charAt(++i));
-                    } else if (Character.isSurrogate(c)) {
-                        b.append('\uFFFD');
-                    } else {
-                        b.append(c);
-                    }
+            if (c == '\n' || c == '\t') {
+                b.append(c);
+            } else if (c < 0x20 || c == '\uFFFE' || c == '\uFFFF') {
+                b.append('\uFFFD');
+            } else if (Character.isHighSurrogate(c) && i + 1 < s.length() && Character.isLowSurrogate(s.charAt(i + 1))) {
+                b.append(c).append(s.charAt(++i));
+            } else if (Character.isSurrogate(c)) {
+                b.append('\uFFFD');
+            } else {
+                b.append(c);
             }
         }
         return b.toString();

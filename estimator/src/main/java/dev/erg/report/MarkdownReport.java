@@ -26,8 +26,12 @@ public final class MarkdownReport {
 
     /** The summary of one pair of a gate result. */
     public static String render(GateResult result, PairResult p) {
+        return render(Figures.of(p), result);
+    }
+
+    static String render(Figures f, GateResult result) {
         StringBuilder b = new StringBuilder();
-        pair(b, Figures.of(p), result);
+        pair(b, f, result);
         b.append("> ").append(text(AnalysisJson.NOTICE)).append('\n');
         return b.toString();
     }
@@ -98,10 +102,12 @@ public final class MarkdownReport {
         if (!p.checks().isEmpty()) {
             b.append("| | check | value | limit | message |\n|---|---|---:|---:|---|\n");
             for (Check c : p.checks()) {
-                String unit = " " + c.metric().unit;
-                b.append("| ").append(c.passed() ? "ok" : "**FAIL**").append(" | ").append(c.kind().label).append('.')
-                        .append(c.metric().key).append(" | ").append(text(Format.sig(c.value()) + unit)).append(" | ")
-                        .append(text(Format.sig(c.limit()) + unit)).append(" | ").append(text(c.message()))
+                String unit = c.metric() == null ? "" : " " + c.unit();
+                String value = c.metric() == null ? "-" : Format.sig(c.value()) + unit;
+                String limit = c.metric() == null ? "-" : Format.sig(c.limit()) + unit;
+                b.append("| ").append(c.passed() ? "ok" : "**FAIL**").append(" | ").append(c.key())
+                        .append(" | ").append(text(value)).append(" | ")
+                        .append(text(limit)).append(" | ").append(text(c.message()))
                         .append(" |\n");
             }
             b.append('\n');
@@ -135,14 +141,14 @@ public final class MarkdownReport {
         }
         b.append("**").append(shown == ranked.size() ? "All " + ConsoleReport.plural(shown, "layer")
                 : "Top " + shown + " of " + ranked.size() + " layers").append(" by energy** (µJ; latency in µs)\n\n");
-        b.append("| # | layer | op | MACs | util | latency | compute | registers | SRAM | DRAM | static | total | share |"
+        b.append("| # | layer | op | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM | static | total | share |"
                 + " bound |\n|---:|---|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|\n");
         for (int i = 0; i < shown; i++) {
             NodeEstimate n = ranked.get(i);
             Energy e = n.energy();
             b.append("| ").append(i + 1).append(" | ").append(code(n.name())).append(" | ").append(code(n.work().opType()))
                     .append(" | ").append(Format.count(n.work().macs())).append(" | ")
-                    .append(ConsoleReport.utilization(n)).append(" | ")
+                    .append(ConsoleReport.utilisation(n)).append(" | ")
                     .append(Format.sig(n.latencySeconds() * 1e6)).append(" | ").append(uj(e.compute())).append(" | ")
                     .append(uj(e.registers())).append(" | ").append(uj(e.sram())).append(" | ").append(uj(e.dram()))
                     .append(" | ").append(uj(e.staticEnergy())).append(" | ").append(uj(e.total())).append(" | ")

@@ -8,9 +8,10 @@ import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
-import java.util.HashSet;
+import java.util.HashMap;
 import java.util.List;
 import java.util.Locale;
+import java.util.Map;
 import java.util.Set;
 import java.util.TreeSet;
 
@@ -44,53 +45,79 @@ public final class Reports {
 
     /** A file-name stem for a model x device pair: model file name and device name, made safe. */
     public static String stem(PairResult p) {
-        String model = Path.of(p.model()).getFileName().toString().replaceAll("\\.onnx$", "");
-        String dev = p.device().startsWith("preset:") ? p.device().substring(7)
-                : Path.of(p.device()).getFileName().toString().replaceAll("\\.(ya?ml|json)$", "");
+        return stem(p.model(), p.device());
+    }
+
+    /** The stem of a model and a device as configured (the model's path, preset:ID or the profile's path). */
+    public static String stem(String modelLabel, String deviceLabel) {
+        String model = fileName(modelLabel).replaceAll("\\.onnx$", "");
+        String dev = deviceLabel.startsWith("preset:") ? deviceLabel.substring(7)
+                : fileName(deviceLabel).replaceAll("\\.(ya?ml|json)$", "");
         return (model + "." + dev).replaceAll("[^A-Za-z0-9._-]", "_");
     }
 
-    /**
-     * Writes the requested formats for every pair into {@code dir}; returns the files written, in a
-     * stable order: pair by pair as in the result, and per pair {@code STEM.json}, {@code STEM.html},
-     * {@code STEM.md}, {@code TEST-erg.STEM.xml} (those requested). When two pairs share a stem (two
-     * models with the same file name), the later one's stem gets "-2", "-3"... so no file is overwritten.
-     */
-    public static List<Path> write(GateResult result, Path dir, Set<String> formats) {
+    private static String fileName(String path) {
+        String t = path.replace('\\', '/');
+        while (t.endsWith("/") && t.length() > 1) {
+            t = t.substring(0, t.length() - 1);
+        }
+        int slash = t.lastIndexOf('/');
+        return slash < 0 ? t : t.substring(slash + 1);
+    }
+
+    /** Throws the one-line error for a format that is not one of {@link #FORMATS}. */
+    public static void checkFormats(Set<String> formats) {
         for (String f : formats) {
             if (!FORMATS.contains(f)) {
                 throw new BadInputException("formats: unknown report format '" + f + "' (known: "
                         + new TreeSet<>(FORMATS) + ")");
             }
         }
+    }
+
+    /**
+     * Writes the requested formats for every pair into {@code dir}; returns the files written, in a
+     * stable order: pair by pair as in the result, and per pair {@code STEM.json}, {@code STEM.html},
+     * {@code STEM.md}, {@code TEST-erg.STEM.xml} (those requested). Two pairs that share a stem (two
+     * models with the same file name) are refused before anything is written: no file is overwritten.
+     * A run checks this before it reads the first model ({@code RunRequest.validate}).
+     */
+    public static List<Path> write(GateResult result, Path dir, Set<String> formats) {
+        checkFormats(formats);
+        Map<String, String> stems = new HashMap<>();
+        for (PairResult p : result.pairs()) {
+            String who = p.model() + " on " + p.device();
+            String other = stems.put(stem(p), who);
+            if (other != null) {
+                throw new BadInputException(other + " and " + who + " would write the same report files ("
+                        + stem(p) + ".*); give the models or device files distinct names");
+            }
+        }
         List<Path> written = new ArrayList<>();
-        Set<String> stems = new HashSet<>();
         Path target = dir;
         try {
             Files.createDirectories(dir);
             for (PairResult p : result.pairs()) {
                 String stem = stem(p);
-                for (int i = 2; !stems.add(stem); i++) {
-                    stem = stem(p) + "-" + i;
-                }
+                Figures f = Figures.of(p); // the one view of the pair that every writer reads
                 if (formats.contains("json")) {
                     target = dir.resolve(stem + ".json");
-                    Files.write(target, GateJson.toBytes(result, p));
+                    Files.write(target, EstimateJson.bytes(f, result));
                     written.add(target);
                 }
                 if (formats.contains("html")) {
                     target = dir.resolve(stem + ".html");
-                    Files.write(target, utf8(HtmlReport.render(result, p)));
+                    Files.write(target, utf8(HtmlReport.render(f, result)));
                     written.add(target);
                 }
                 if (formats.contains("markdown")) {
                     target = dir.resolve(stem + ".md");
-                    Files.write(target, utf8(MarkdownReport.render(result, p)));
+                    Files.write(target, utf8(MarkdownReport.render(f, result)));
                     written.add(target);
                 }
                 if (formats.contains("junit")) {
                     target = dir.resolve("TEST-erg." + stem + ".xml");
-                    Files.write(target, utf8(JUnitReport.render(result, p, stem)));
+                    Files.write(target, utf8(JUnitReport.render(f, result, stem)));
                     written.add(target);
                 }
             }

@@ -8,6 +8,7 @@ import java.util.Map;
 /** The workload of a whole model: every node's work, the totals, and what erg could not model. */
 public final class ModelWorkload {
     private final Graph graph;
+    private final ModelInfo info;
     private final List<NodeWork> nodes;
     private final long macs;
     private final long vectorOps;
@@ -19,6 +20,7 @@ public final class ModelWorkload {
     ModelWorkload(Graph graph, List<NodeWork> nodes, long macs, long vectorOps, long weightBytes,
                   long peakActivationBytes, Map<String, Integer> unmodelled, Map<String, Integer> unresolved) {
         this.graph = graph;
+        this.info = ModelInfo.of(graph);
         this.nodes = List.copyOf(nodes);
         this.macs = macs;
         this.vectorOps = vectorOps;
@@ -28,8 +30,17 @@ public final class ModelWorkload {
         this.unresolved = Map.copyOf(unresolved);
     }
 
+    /**
+     * The analysis's working graph, for the stages after the workload (estimation). Reports read
+     * {@link #info()} and {@link #nodes()} instead: they never hold the graph.
+     */
     public Graph graph() {
         return graph;
+    }
+
+    /** What reports say about the model: file, producer, opsets, bound dims. Immutable. */
+    public ModelInfo info() {
+        return info;
     }
 
     /** Every node of the main graph, in topological order. */

@@ -49,8 +49,14 @@ public final class NodeWork {
         this.note = b.note;
     }
 
+    /** The graph node, for the estimation stage; reports read {@link #name()}, {@link #opType()}, {@link #domain()}. */
     public Node node() {
         return node;
+    }
+
+    /** The operator's domain ("" for the default ONNX domain). */
+    public String domain() {
+        return node.domain();
     }
 
     public String name() {

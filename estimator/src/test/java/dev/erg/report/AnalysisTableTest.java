@@ -72,12 +72,12 @@ class AnalysisTableTest {
             "precision"}) {
             assertTrue(header.contains(col), header);
         }
-        // Rank 1 is the Conv: 6,912 MACs (see ReportModels), 432 B of weights, 768 B in, 1.00 KiB out.
+        // Rank 1 is the Conv: 6,912 MACs (see ReportModels), 432 B of weights, 768 B in, 1 KiB out.
         String conv = table.get(1);
-        assertTrue(conv.matches("\\s*1\\s+conv\\s+Conv\\s+1x4x8x8\\s+6\\.91k\\s+0\\s+432 B\\s+768 B\\s+1\\.00 KiB\\s+fp32"),
+        assertTrue(conv.matches("\\s*1\\s+conv\\s+Conv\\s+1x4x8x8\\s+6\\.91k\\s+0\\s+432 B\\s+768 B\\s+1 KiB\\s+fp32"),
                 conv);
         String relu = table.get(2);
-        assertTrue(relu.matches("\\s*2\\s+relu\\s+Relu\\s+1x4x8x8\\s+0\\s+256\\s+0 B\\s+1\\.00 KiB\\s+1\\.00 KiB\\s+fp32"),
+        assertTrue(relu.matches("\\s*2\\s+relu\\s+Relu\\s+1x4x8x8\\s+0\\s+256\\s+0 B\\s+1 KiB\\s+1 KiB\\s+fp32"),
                 relu);
         assertTrue(s.contains("(6,912)"), s);
         assertTrue(s.matches("(?s).*\\n  nodes\\s+2  \\(0 folded, 0 views\\)\\n.*"), s);
@@ -150,29 +150,34 @@ class AnalysisTableTest {
     void humanUnits() {
         // Decimal prefixes for counts (SI: k = 10^3, M = 10^6, G = 10^9); binary prefixes for bytes
         // (IEC 80000-13: KiB = 2^10, MiB = 2^20 bytes).
+        // One rule for every number (dev.erg.format.Numbers): three significant digits, trailing
+        // zeros dropped, the whole part never rounded away; counts and sizes take their prefix first.
         assertEquals("0", Format.count(0));
         assertEquals("999", Format.count(999));
-        assertEquals("1.00k", Format.count(1000));
+        assertEquals("1k", Format.count(1000));
         assertEquals("6.91k", Format.count(6912));
-        assertEquals("1.00M", Format.count(999_999)); // 999.999k rounds up into the next unit
+        assertEquals("1M", Format.count(999_999)); // 999.999k would need four digits: the next unit
         assertEquals("116M", Format.count(115_605_504));
         assertEquals("1.81G", Format.count(1_814_073_344L));
         assertEquals("9.22E", Format.count(Long.MAX_VALUE));
         assertEquals("1023 B", Format.bytes(1023));
-        assertEquals("1.00 KiB", Format.bytes(1024));
-        assertEquals("1.50 KiB", Format.bytes(1536));
-        assertEquals("0.98 MiB", Format.bytes(1000 * 1024 + 512)); // 1000.5 KiB would need four digits
+        assertEquals("1 KiB", Format.bytes(1024));
+        assertEquals("1.5 KiB", Format.bytes(1536));
+        assertEquals("0.977 MiB", Format.bytes(1000 * 1024 + 512)); // 1000.5 KiB would need four digits
         assertEquals("44.6 MiB", Format.bytes(46_723_488)); // 46,723,488 / 2^20 = 44.56
-        assertEquals("2.00 GiB", Format.bytes(1L << 31));
+        assertEquals("2 GiB", Format.bytes(1L << 31));
         assertEquals("1,814,073,344", Format.exact(1_814_073_344L));
         assertEquals("999", Format.exact(999));
         assertEquals("1,000", Format.exact(1000));
         assertEquals("-1,000", Format.exact(-1000));
         assertEquals("9,223,372,036,854,775,807", Format.exact(Long.MAX_VALUE));
-        assertEquals("0.05", Format.threeDigits(0.049999)); // rounds to hundredths
-        assertEquals("1.05", Format.threeDigits(1.05));
-        assertEquals("10.0", Format.threeDigits(9.996)); // 9.996 rounds up into the next width
-        assertEquals("100", Format.threeDigits(99.96));
+        assertEquals("0.05", Format.sig(0.049999)); // rounds half up to three significant digits
+        assertEquals("1.05", Format.sig(1.05));
+        assertEquals("10", Format.sig(9.996)); // 9.996 rounds up into the next width
+        assertEquals("100", Format.sig(99.96));
+        assertEquals("286", Format.sig(286.136));
+        assertEquals("13383", Format.sig(13383.3)); // the whole part is kept
+        assertEquals("unbounded", Format.sig(Double.POSITIVE_INFINITY));
         assertEquals("1x64x56x56", Format.shape(new long[] {1, 64, 56, 56}));
         assertEquals("scalar", Format.shape(new long[0]));
         assertEquals("?", Format.shape(null));

@@ -62,7 +62,7 @@ class GateJsonTest {
         JsonNode conv = root.at("/nodes/0");
         assertEquals(List.of("name", "opType", "macs", "vectorOps", "weightBytes", "inputBytes", "outputBytes",
                 "precision", "outputShapes", "kind", "weightPrecision", "gemm", "estimate"), names(conv));
-        assertEquals(List.of("engine", "precision", "latencySeconds", "utilization", "bound", "computeCycles", "bytes",
+        assertEquals(List.of("engine", "precision", "latencySeconds", "utilisation", "bound", "computeCycles", "bytes",
                 "energyJoules", "seconds"), names(conv.get("estimate")));
         assertEquals(List.of("registerRead", "registerWrite", "sramRead", "sramWrite", "dramRead", "dramWrite"),
                 names(conv.at("/estimate/bytes")));
@@ -71,7 +71,7 @@ class GateJsonTest {
         assertEquals(List.of("id", "name", "description", "clockMhz", "staticPowerMw", "deployPrecision",
                 "peakMacsPerSecond", "engines", "sram", "dram"), names(root.get("device")));
         JsonNode fps = root.at("/checks/0");
-        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "passed", "message", "topLayers"), names(fps));
+        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "passed", "verdict", "message", "topLayers"), names(fps));
         Check c = r.pairs().get(0).checks().get(0);
         assertEquals("budget", fps.get("kind").asText());
         assertEquals("frameRate", fps.get("metric").asText());
@@ -99,7 +99,7 @@ class GateJsonTest {
         assertEquals(1_600, e.at("/bytes/dramWrite").asLong());
         assertEquals("sram", e.get("bound").asText());
         assertEquals(1800, e.get("computeCycles").asLong());
-        assertEquals(1.0, e.get("utilization").asDouble(), 1e-12);
+        assertEquals(1.0, e.get("utilisation").asDouble(), 1e-12);
         assertEquals(74.72e-6, e.get("latencySeconds").asDouble(), 1e-15);
         assertEquals(11.52e-9, e.at("/energyJoules/compute").asDouble(), 1e-18);
         assertEquals(5.76e-9, e.at("/energyJoules/registers").asDouble(), 1e-18);
@@ -145,9 +145,10 @@ class GateJsonTest {
                 Baseline.of(base.pairs()), "erg-baseline.json", 10.0);
         JsonNode root = json(r);
         JsonNode macs = root.at("/checks/0");
-        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "baseline", "passed", "message", "topLayers"),
+        assertEquals(List.of("kind", "metric", "unit", "value", "limit", "baseline", "passed", "verdict", "message",
+                "topLayers"),
                 names(macs));
-        assertEquals("baseline", macs.get("kind").asText());
+        assertEquals("growth", macs.get("kind").asText());
         // 6,912 -> 13,824 MACs, allowed 10%: limit 7,603.2.
         assertEquals(6912, macs.get("baseline").asDouble());
         assertEquals(13824, macs.get("value").asDouble());

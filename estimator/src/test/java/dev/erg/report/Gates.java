@@ -4,13 +4,21 @@ import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Gate;
 import dev.erg.budget.GateResult;
+import dev.erg.budget.PairResult;
+import dev.erg.analysis.Analyzer;
+import dev.erg.estimate.Estimator;
+import dev.erg.run.DeviceSpec;
+import dev.erg.run.ModelSpec;
+import dev.erg.run.RunRequest;
+import dev.erg.run.Runner;
+import dev.erg.workload.ModelWorkload;
+import java.util.ArrayList;
 import dev.erg.device.DeviceProfile;
 import dev.erg.estimate.TestDevice;
 import dev.erg.onnx.ElemType;
 import dev.erg.onnx.OnnxWriter;
 import java.nio.file.Path;
 import java.util.List;
-import java.util.Map;
 
 /** Gate results of small models on the hand-set test device, for the report tests. */
 final class Gates {
@@ -29,8 +37,30 @@ final class Gates {
     }
 
     static GateResult gate(Path model, Budget budget, Baseline baseline, String baselineFile, Double growth) {
-        return Gate.evaluate(List.of(new Gate.ModelSpec(model.getFileName().toString(), model, Map.of())),
-                List.of(device()), budget, baseline, baselineFile, growth, line -> { });
+        return gate(List.of(new ModelSpec(model.getFileName().toString(), model)), List.of(device()), budget,
+                baseline, baselineFile, growth);
+    }
+
+    /** The run of the library's runner, with a baseline given in memory rather than read from a file. */
+    static GateResult gate(List<ModelSpec> models, List<DeviceProfile> devices, Budget budget, Baseline baseline,
+                           String baselineFile, Double growth) {
+        List<PairResult> pairs = new ArrayList<>();
+        for (ModelSpec m : models) {
+            ModelWorkload w = Analyzer.analyze(m.file(), m.dims());
+            for (DeviceProfile d : devices) {
+                pairs.add(Gate.evaluatePair(m.label(), d.id(), Estimator.estimate(w, d), budget, baseline, growth));
+            }
+        }
+        return Gate.result(pairs, budget, growth, baselineFile, baseline != null, List.of());
+    }
+
+    /** A run of {@code models} on {@code devices} through the library's runner. */
+    static GateResult run(List<ModelSpec> models, List<DeviceProfile> devices, Budget budget) {
+        RunRequest.Builder b = RunRequest.builder().models(models).budget(budget);
+        for (DeviceProfile d : devices) {
+            b.device(new DeviceSpec(d));
+        }
+        return Runner.run(b.build(), Runner.Progress.NONE).result();
     }
 
     /** A budget the conv+relu model fails on frame rate and holds on latency. */

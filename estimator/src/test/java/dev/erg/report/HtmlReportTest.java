@@ -22,6 +22,11 @@ import org.w3c.dom.Document;
 import org.w3c.dom.Element;
 import org.w3c.dom.NodeList;
 
+/**
+ * The HTML page. Escaping is checked against the character references of the HTML standard (decoded
+ * here, independently of the template engine): what a browser shows must be the name or message
+ * verbatim, and no markup from a name may reach the page.
+ */
 class HtmlReportTest {
     @TempDir
     Path dir;
@@ -48,6 +53,42 @@ class HtmlReportTest {
                 .parse(new ByteArrayInputStream(xml.getBytes(StandardCharsets.UTF_8)));
     }
 
+    /**
+     * Text as a browser shows it: the character references of the HTML standard decoded (the five
+     * named ones the page uses, decimal and hexadecimal numeric ones). Written here so that the test
+     * does not take the writer's own escaping as its oracle.
+     */
+    static String decode(String html) {
+        Matcher m = Pattern.compile("&(amp|lt|gt|quot|apos|#[0-9]+|#x[0-9a-fA-F]+);").matcher(html);
+        StringBuilder b = new StringBuilder();
+        while (m.find()) {
+            String ref = m.group(1);
+            String c;
+            switch (ref) {
+                case "amp" -> c = "&";
+                case "lt" -> c = "<";
+                case "gt" -> c = ">";
+                case "quot" -> c = "\"";
+                case "apos" -> c = "'";
+                default -> c = new String(Character.toChars(ref.startsWith("#x")
+                        ? Integer.parseInt(ref.substring(2), 16) : Integer.parseInt(ref.substring(1))));
+            }
+            m.appendReplacement(b, Matcher.quoteReplacement(c));
+        }
+        m.appendTail(b);
+        return b.toString();
+    }
+
+    /** The decoded texts of every match of group 1 of {@code regex}. */
+    private static java.util.List<String> texts(String html, String regex) {
+        java.util.List<String> out = new java.util.ArrayList<>();
+        Matcher m = Pattern.compile(regex, Pattern.DOTALL).matcher(html);
+        while (m.find()) {
+            out.add(decode(m.group(1)));
+        }
+        return out;
+    }
+
     private static int bars(Document svg) {
         int n = 0;
         NodeList gs = svg.getElementsByTagName("g");
@@ -66,10 +107,15 @@ class HtmlReportTest {
         assertTrue(html.startsWith("<!DOCTYPE html>\n<html lang=\"en\">"), html.substring(0, 40));
         assertTrue(html.endsWith("</html>\n"));
         assertTrue(html.contains("<div class=\"verdict fail\" id=\"verdict\">FAIL</div>"));
+        java.util.List<String> shown = texts(html, "<li class=\"(?:ok|bad|risk)\"><span class=\"pill\">[^<]*</span>"
+                + " <span class=\"kind\">[^<]*</span> ([^<]*)</li>");
+        java.util.List<String> messages = new java.util.ArrayList<>();
         for (Check c : r.pairs().get(0).checks()) {
-            assertTrue(html.contains(HtmlReport.esc(c.message())), c.message());
+            messages.add(c.message());
         }
-        assertTrue(html.contains(HtmlReport.esc(AnalysisJson.NOTICE)));
+        assertEquals(messages, shown, "every check's message, verbatim once decoded, in order");
+        assertEquals(java.util.List.of(AnalysisJson.NOTICE),
+                texts(html, "<p class=\"notice\" id=\"notice\"><strong>Analytical estimate.</strong> ([^<]*)</p>"));
         for (String id : new String[] {"checks", "totals", "energy", "latency", "roofline", "layers", "diff",
                 "assumptions"}) {
             assertEquals(1, count(html, "<section id=\"" + id + "\">"), id);
@@ -90,6 +136,8 @@ class HtmlReportTest {
                 "url(", "@import", "http:", "https:", "//"}) {
             assertFalse(html.contains(s), "the page contains " + s);
         }
+        // The style is the packaged report.css, set inline.
+        assertTrue(html.contains(":root{--ink:"), "the stylesheet is inline");
     }
 
     @Test
@@ -98,12 +146,19 @@ class HtmlReportTest {
         String html = page(r);
         assertFalse(html.contains("<script"), "raw markup from a node name");
         assertFalse(html.contains("\"q\""), "a raw quote from a node name");
-        assertTrue(html.contains("&lt;script&gt;alert(1)&lt;/script&gt; &amp; &quot;q&quot; &#39;x&#39; | `tick`"));
-        // Each chart stays well-formed XML with the name in its labels and tooltips.
+        // The layer table's title attribute shows the name verbatim once decoded.
+        assertTrue(texts(html, "<td class=\"l name\" title=\"([^\"]*)\">").contains(Gates.HOSTILE));
+        // Each chart is well-formed XML (parsed by the JDK's parser), and its tooltips carry the name
+        // verbatim: the bar tooltips "NAME (Conv): ...", the roofline dot "NAME (Conv): ...".
         for (String id : new String[] {"chart-energy", "chart-latency", "chart-roofline"}) {
-            Document d = svg(html, id);
-            assertTrue(d.getDocumentElement().getTextContent().contains(Gates.HOSTILE)
-                    || d.getDocumentElement().getTextContent().contains("<script>aler"), id);
+            NodeList titles = svg(html, id).getElementsByTagName("title");
+            int carrying = 0;
+            for (int i = 0; i < titles.getLength(); i++) {
+                if (titles.item(i).getTextContent().startsWith(Gates.HOSTILE + " (Conv): ")) {
+                    carrying++;
+                }
+            }
+            assertTrue(carrying >= 1, id + ": no tooltip names the layer verbatim");
         }
     }
 
@@ -173,14 +228,14 @@ class HtmlReportTest {
     @Test
     void niceStepsAndDecades() {
         // 1-2-5 steps (common practice for chart axes, no single source).
-        assertEquals(0.5, HtmlReport.niceStep(0.31), 1e-12);
-        assertEquals(2.0, HtmlReport.niceStep(1.2), 1e-12);
-        assertEquals(100.0, HtmlReport.niceStep(71), 1e-9);
-        assertEquals("0.01", HtmlReport.decade(-2, ""));
-        assertEquals("1", HtmlReport.decade(0, ""));
-        assertEquals("100", HtmlReport.decade(2, ""));
-        assertEquals("10G", HtmlReport.decade(10, ""));
-        assertEquals("12.5", HtmlReport.px(12.46));
-        assertEquals("3", HtmlReport.px(2.96));
+        assertEquals(0.5, Svg.niceStep(0.31), 1e-12);
+        assertEquals(2.0, Svg.niceStep(1.2), 1e-12);
+        assertEquals(100.0, Svg.niceStep(71), 1e-9);
+        assertEquals("0.01", Svg.decade(-2, ""));
+        assertEquals("1", Svg.decade(0, ""));
+        assertEquals("100", Svg.decade(2, ""));
+        assertEquals("10G", Svg.decade(10, ""));
+        assertEquals("12.5", Svg.px(12.46));
+        assertEquals("3", Svg.px(2.96));
     }
 }

@@ -9,14 +9,16 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import dev.erg.error.BadInputException;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Check;
-import dev.erg.budget.Gate;
+import dev.erg.run.DeviceSpec;
+import dev.erg.run.ModelSpec;
+import dev.erg.run.RunRequest;
+import dev.erg.run.Runner;
 import dev.erg.budget.GateResult;
 import dev.erg.device.DeviceLoader;
 import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
-import java.util.Map;
 import java.util.Set;
 import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
@@ -36,9 +38,8 @@ class ReportsTest {
     @Test
     void everyFormatPerPairInAStableOrder() throws Exception {
         Path model = Gates.convRelu(dir.resolve("tiny.onnx"), "conv", "relu", 4);
-        GateResult r = Gate.evaluate(List.of(new Gate.ModelSpec("models/tiny.onnx", model, Map.of())),
-                List.of(Gates.device(), DeviceLoader.load("preset:feeder-npu", null)), Gates.mixed(), null, null, null,
-                line -> { });
+        GateResult r = Gates.run(List.of(new ModelSpec("models/tiny.onnx", model)),
+                List.of(Gates.device(), DeviceLoader.load("preset:feeder-npu", null)), Gates.mixed());
         Path out = dir.resolve("target/erg");
         List<Path> files = Reports.write(r, out, Reports.parseFormats("junit, markdown,html,json"));
         assertEquals(List.of("tiny.test-device.json", "tiny.test-device.html", "tiny.test-device.md",
@@ -49,9 +50,8 @@ class ReportsTest {
             assertTrue(Files.size(f) > 0, f.toString());
         }
         // Written again from a fresh evaluation: the same bytes.
-        GateResult again = Gate.evaluate(List.of(new Gate.ModelSpec("models/tiny.onnx", model, Map.of())),
-                List.of(Gates.device(), DeviceLoader.load("preset:feeder-npu", null)), Gates.mixed(), null, null, null,
-                line -> { });
+        GateResult again = Gates.run(List.of(new ModelSpec("models/tiny.onnx", model)),
+                List.of(Gates.device(), DeviceLoader.load("preset:feeder-npu", null)), Gates.mixed());
         Path out2 = dir.resolve("again");
         List<Path> files2 = Reports.write(again, out2, Reports.FORMATS);
         assertEquals(names(files), names(files2));
@@ -63,14 +63,22 @@ class ReportsTest {
     }
 
     @Test
-    void twoModelsWithOneFileNameDoNotOverwriteEachOther() throws Exception {
+    void twoModelsWithOneFileNameAreRefusedBeforeAnyModelIsRead() throws Exception {
         Path a = Gates.convRelu(Files.createDirectories(dir.resolve("a")).resolve("m.onnx"), "conv", "relu", 4);
+        // b/m.onnx does not exist: the collision is found before any model is read.
+        RunRequest req = RunRequest.builder().model(new ModelSpec("a/m.onnx", a))
+                .model(new ModelSpec("b/m.onnx", dir.resolve("b/m.onnx"))).device(new DeviceSpec(Gates.device()))
+                .reports(dir.resolve("out"), Set.of("json")).build();
+        BadInputException e = assertThrows(BadInputException.class, () -> Runner.run(req, Runner.Progress.NONE));
+        assertEquals("a/m.onnx on test-device and b/m.onnx on test-device would write the same report files"
+                + " (m.test-device.*); give the models or device files distinct names", e.getMessage());
+        assertFalse(Files.exists(dir.resolve("out")), "nothing written");
+        // The writer refuses the same collision on a result made elsewhere.
         Path b = Gates.convRelu(Files.createDirectories(dir.resolve("b")).resolve("m.onnx"), "conv", "relu", 8);
-        GateResult r = Gate.evaluate(List.of(new Gate.ModelSpec("a/m.onnx", a, Map.of()),
-                new Gate.ModelSpec("b/m.onnx", b, Map.of())), List.of(Gates.device()), Budget.none(), null, null, null,
-                line -> { });
-        assertEquals(List.of("m.test-device.json", "m.test-device-2.json"),
-                names(Reports.write(r, dir.resolve("out"), Set.of("json"))));
+        GateResult r = Gates.gate(List.of(new ModelSpec("a/m.onnx", a), new ModelSpec("b/m.onnx", b)),
+                List.of(Gates.device()), Budget.none(), null, null, null);
+        assertThrows(BadInputException.class, () -> Reports.write(r, dir.resolve("out"), Set.of("json")));
+        assertFalse(Files.exists(dir.resolve("out")), "nothing written");
     }
 
     @Test
@@ -98,7 +106,7 @@ class ReportsTest {
         List<String> lines = List.of(text.split("\n"));
         assertEquals("chain.onnx on test-device (test device, 100 MHz)", lines.get(0));
         assertEquals("Top 10 of 12 layers by energy (energy in µJ)", lines.get(1));
-        assertEquals(List.of("#", "layer", "op", "MACs", "util", "lat", "µs", "compute", "regs", "SRAM", "DRAM",
+        assertEquals(List.of("#", "layer", "op", "MACs", "utilisation", "latency", "µs", "compute", "registers", "SRAM", "DRAM",
                 "static", "total", "share", "bound"), List.of(lines.get(2).trim().split(" +")));
         // 10 rows, each as wide as the header once its trailing blanks are cut (right-aligned numbers).
         for (int i = 3; i < 13; i++) {
@@ -149,9 +157,8 @@ class ReportsTest {
 
     @Test
     void stemsAreSafeFileNames() {
-        GateResult r = Gate.evaluate(List.of(new Gate.ModelSpec("some dir/My Model (v2).onnx",
-                Gates.single(dir.resolve("one.onnx")), Map.of())), List.of(Gates.device()), Budget.none(), null, null,
-                null, line -> { });
+        GateResult r = Gates.run(List.of(new ModelSpec("some dir/My Model (v2).onnx",
+                Gates.single(dir.resolve("one.onnx")))), List.of(Gates.device()), Budget.none());
         assertEquals("My_Model__v2_.test-device", Reports.stem(r.pairs().get(0)));
     }
 }

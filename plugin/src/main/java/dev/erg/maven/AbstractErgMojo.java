@@ -1,40 +1,38 @@
 package dev.erg.maven;
 
-import dev.erg.analysis.AnalysisOptions;
-import dev.erg.error.BadInputException;
-import dev.erg.budget.Baseline;
-import dev.erg.budget.Budget;
-import dev.erg.budget.Gate;
 import dev.erg.budget.GateResult;
-import dev.erg.budget.PairResult;
 import dev.erg.device.DeviceLoader;
-import dev.erg.device.DeviceProfile;
+import dev.erg.error.BadInputException;
+import dev.erg.graph.UnboundDimException;
 import dev.erg.report.Reports;
+import dev.erg.run.DeviceSpec;
+import dev.erg.run.ModelSpec;
+import dev.erg.run.RunOutcome;
+import dev.erg.run.RunRequest;
+import dev.erg.run.Runner;
 import java.io.File;
 import java.nio.file.Path;
-import java.util.ArrayList;
-import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import java.util.Set;
 import org.apache.maven.plugin.AbstractMojo;
 import org.apache.maven.plugin.MojoExecutionException;
 import org.apache.maven.plugin.MojoFailureException;
 import org.apache.maven.plugins.annotations.Parameter;
 
 /**
- * The configuration every erg goal shares, and its translation into the library's terms. The goals
- * hold no logic of their own beyond mapping results to log lines and build outcomes.
+ * The configuration every erg goal shares, and its translation into the library's {@link RunRequest}.
+ * The goals hold no logic of their own: the library's {@link Runner} validates the whole request, runs
+ * it, writes the reports and the baseline; the goals map its outcome to log lines and build outcomes.
  */
 abstract class AbstractErgMojo extends AbstractMojo {
     static final String PREFIX = "erg: ";
 
     /**
      * The ONNX models to estimate. Each {@code <model>} has a {@code <file>} (relative to the project's
-     * base directory) and optional {@code <dimensions>} that bind symbolic dimensions, e.g.
-     * {@code <batch>1</batch>}.
+     * base directory), optional {@code <dimensions>} that bind symbolic dimensions, e.g.
+     * {@code <batch>1</batch>}, and an optional {@code <budget>} of its own.
      */
     @Parameter
     List<ModelConfig> models;
@@ -54,12 +52,19 @@ abstract class AbstractErgMojo extends AbstractMojo {
     String baseline;
 
     /**
-     * Makes an operator that erg has no rule for (or a node left unresolved downstream of one) an
-     * error instead of a line in the reports. Unmodelled nodes are never priced, so the totals of such
-     * a model are incomplete.
+     * Makes an operator that erg has no rule for (or a node left unresolved downstream of one) a
+     * policy violation, listed with the budget's, instead of a note. Unmodelled nodes are never priced,
+     * so the totals of such a model are incomplete.
      */
     @Parameter(property = "erg.failOnUnmodelled", defaultValue = "false")
     boolean failOnUnmodelled;
+
+    /**
+     * Fails the build when a budget, the allowed growth or a policy does not hold. With {@code false}
+     * the goal only reports (every verdict is still logged and written), e.g. on a branch.
+     */
+    @Parameter(property = "erg.failOnViolation", defaultValue = "true")
+    boolean failOnViolation;
 
     /** Skips the goal. */
     @Parameter(property = "erg.skip", defaultValue = "false")
@@ -69,114 +74,92 @@ abstract class AbstractErgMojo extends AbstractMojo {
     @Parameter(defaultValue = "${project.basedir}", readonly = true, required = true)
     File basedir;
 
-    /** The configuration resolved into the library's terms. */
-    static final class Settings {
-        final List<Gate.ModelSpec> models;
-        final List<String> devices;
-        final Budget budget;
-        final String baselineLabel;
-        final Path baselineFile;
-        final Double maxGrowthPercent;
-        final Set<String> formats;
-        final Path outputDirectory;
-
-        Settings(List<Gate.ModelSpec> models, List<String> devices, Budget budget, String baselineLabel,
-                 Path baselineFile, Double maxGrowthPercent, Set<String> formats, Path outputDirectory) {
-            this.models = models;
-            this.devices = devices;
-            this.budget = budget;
-            this.baselineLabel = baselineLabel;
-            this.baselineFile = baselineFile;
-            this.maxGrowthPercent = maxGrowthPercent;
-            this.formats = formats;
-            this.outputDirectory = outputDirectory;
-        }
-    }
-
     @Override
     public final void execute() throws MojoExecutionException, MojoFailureException {
         if (skip) {
             getLog().info(PREFIX + "skipped");
             return;
         }
+        RunRequest req = request();
+        RunOutcome outcome;
         try {
-            run(settings());
+            outcome = Runner.run(req, line -> getLog().info(PREFIX + line));
+        } catch (UnboundDimException e) {
+            throw new MojoExecutionException(e.getMessage() + "; bind it with <dimensions><" + e.dim() + ">N</"
+                    + e.dim() + "></dimensions> in the <model>", e);
         } catch (BadInputException e) {
             throw new MojoExecutionException(e.getMessage(), e);
         }
+        done(outcome);
     }
 
-    /** The goal's work, on validated settings. */
-    abstract void run(Settings s) throws MojoExecutionException, MojoFailureException;
+    /** The goal's mapping of the outcome to log lines and the build's result. */
+    abstract void done(RunOutcome outcome) throws MojoExecutionException, MojoFailureException;
 
-    /** Validates the configuration and resolves it; every fault is one line that names the element. */
-    Settings settings() throws MojoExecutionException {
+    /**
+     * The configuration as the library's request, validated as a whole before any model is read; every
+     * fault is one line that names the element.
+     */
+    RunRequest request() throws MojoExecutionException {
         Path base = basedir.toPath();
         if (models == null || models.isEmpty()) {
             throw new MojoExecutionException("erg: no models configured; add <models><model><file>path/to/model.onnx"
                     + "</file></model></models> to the plugin configuration");
-        }
-        List<Gate.ModelSpec> specs = new ArrayList<>();
-        Map<String, Integer> seen = new HashMap<>();
-        for (int i = 0; i < models.size(); i++) {
-            ModelConfig m = models.get(i);
-            String where = "models[" + i + "]";
-            if (m == null || m.getFile() == null || m.getFile().isBlank()) {
-                throw new MojoExecutionException("erg: " + where + ": no <file> given (the path of an ONNX model)");
-            }
-            String label = m.getFile().strip();
-            Integer before = seen.putIfAbsent(label, i);
-            if (before != null) {
-                throw new MojoExecutionException("erg: " + where + ": " + label + " is listed twice (also as models["
-                        + before + "])");
-            }
-            specs.add(new Gate.ModelSpec(label, resolve(base, label, where + ".file"),
-                    dimensions(where + " (" + label + ")", m.getDimensions())));
         }
         if (devices == null || devices.isEmpty()) {
             throw new MojoExecutionException("erg: no devices configured; add <devices><device>preset:ID</device>"
                     + "</devices> or a device profile file (presets: " + String.join(", ", DeviceLoader.presetIds())
                     + ")");
         }
-        List<String> devs = new ArrayList<>();
-        for (int i = 0; i < devices.size(); i++) {
-            String d = devices.get(i);
-            if (d == null || d.isBlank()) {
-                throw new MojoExecutionException("erg: devices[" + i + "]: empty; write preset:ID or a device profile"
-                        + " file (presets: " + String.join(", ", DeviceLoader.presetIds()) + ")");
+        RunRequest.Builder b = RunRequest.builder().deviceBase(base).failOnUnmodelled(failOnUnmodelled)
+                .failOnViolation(failOnViolation);
+        try {
+            for (int i = 0; i < models.size(); i++) {
+                ModelConfig m = models.get(i);
+                String where = "models[" + i + "]";
+                if (m == null || m.getFile() == null || m.getFile().isBlank()) {
+                    throw new MojoExecutionException("erg: " + where + ": no <file> given (the path of an ONNX model)");
+                }
+                String label = m.getFile().strip();
+                where += " (" + label + ")";
+                ModelSpec spec = new ModelSpec(label, resolve(base, label, where + ".file"))
+                        .withDims(dimensions(where, m.getDimensions()));
+                if (m.getBudget() != null && checksBudgets()) {
+                    spec = spec.withBudget(m.getBudget().toBudget(where + ".budget"));
+                }
+                b.model(spec);
             }
-            d = d.strip();
-            if (devs.contains(d)) {
-                throw new MojoExecutionException("erg: devices[" + i + "]: " + d + " is listed twice");
+            for (int i = 0; i < devices.size(); i++) {
+                String d = devices.get(i);
+                if (d == null || d.isBlank()) {
+                    throw new MojoExecutionException("erg: devices[" + i + "]: empty; write preset:ID or a device"
+                            + " profile file (presets: " + String.join(", ", DeviceLoader.presetIds()) + ")");
+                }
+                b.device(device(d.strip()));
             }
-            devs.add(d);
+            String baselineLabel = baseline == null || baseline.isBlank() ? null : baseline.strip();
+            if (baselineLabel != null) {
+                b.baseline(baselineLabel, resolve(base, baselineLabel, "baseline"));
+            }
+            configure(b);
+            return b.build().validate();
+        } catch (BadInputException e) {
+            throw new MojoExecutionException("erg: " + e.getMessage(), e);
         }
-        Budget b = budgetSetting();
-        String baselineLabel = baseline == null || baseline.isBlank() ? null : baseline.strip();
-        Path baselineFile = baselineLabel == null ? null : resolve(base, baselineLabel, "baseline");
-        return new Settings(List.copyOf(specs), List.copyOf(devs), b, baselineLabel, baselineFile,
-                growthSetting(), formatsSetting(), outputSetting());
     }
 
-    /** The budget of the goals that check one; none here. */
-    Budget budgetSetting() throws MojoExecutionException {
-        return Budget.none();
+    /** True for the goals that hold budgets (check, report); the baseline goal only records. */
+    boolean checksBudgets() {
+        return false;
     }
 
-    /** The allowed growth of the goals that check it; none here. */
-    Double growthSetting() throws MojoExecutionException {
-        return null;
+    /** A device as configured, with the limits the goal gives it. */
+    DeviceSpec device(String label) throws MojoExecutionException {
+        return new DeviceSpec(label);
     }
 
-    /** The report formats of the goals that write reports; none here. */
-    Set<String> formatsSetting() throws MojoExecutionException {
-        return Set.of();
-    }
-
-    /** The report directory of the goals that write reports; none here. */
-    Path outputSetting() throws MojoExecutionException {
-        return null;
-    }
+    /** The goal's own settings: budgets, growth, reports, baseline writing. */
+    abstract void configure(RunRequest.Builder b) throws MojoExecutionException;
 
     private static Path resolve(Path base, String path, String where) throws MojoExecutionException {
         try {
@@ -188,76 +171,48 @@ abstract class AbstractErgMojo extends AbstractMojo {
         }
     }
 
-    private static Map<String, Long> dimensions(String where, Map<String, String> dims)
-            throws MojoExecutionException {
+    private static Map<String, Long> dimensions(String where, Map<String, String> dims) {
         Map<String, Long> out = new LinkedHashMap<>();
-        if (dims == null) {
-            return out;
-        }
-        for (Map.Entry<String, String> e : dims.entrySet()) {
-            String v = e.getValue() == null ? "" : e.getValue().strip();
-            long n;
-            try {
-                n = Long.parseLong(v);
-            } catch (NumberFormatException x) {
-                n = -1;
+        if (dims != null) {
+            for (Map.Entry<String, String> e : dims.entrySet()) {
+                out.put(e.getKey(), ModelSpec.parseDim(where + ": dimensions." + e.getKey(), e.getValue()));
             }
-            if (n < 1) {
-                throw new MojoExecutionException("erg: " + where + ": dimensions." + e.getKey()
-                        + ": must be a whole number of 1 or more (got '" + v + "')");
-            }
-            out.put(e.getKey(), n);
         }
         return out;
     }
 
-    /** Loads the devices; a fault is the library's one-line message. */
-    List<DeviceProfile> loadDevices(Settings s) {
-        List<DeviceProfile> out = new ArrayList<>();
-        for (String d : s.devices) {
-            out.add(DeviceLoader.load(d, basedir.toPath()));
-        }
-        return out;
-    }
-
-    /**
-     * Estimates every model on every device; with {@code useBaseline}, reads the configured baseline
-     * (absent is fine) and checks growth against it.
-     */
-    GateResult evaluate(Settings s, Budget budget, boolean useBaseline) throws MojoExecutionException {
-        List<DeviceProfile> profiles = loadDevices(s);
-        Baseline base = useBaseline && s.baselineFile != null ? Baseline.read(s.baselineFile) : null;
-        GateResult r = Gate.evaluate(s.models, profiles, budget, base, useBaseline ? s.baselineLabel : null,
-                useBaseline && s.baselineLabel != null ? s.maxGrowthPercent : null,
-                line -> getLog().info(PREFIX + line), new AnalysisOptions(failOnUnmodelled));
-        Map<String, String> stems = new HashMap<>();
-        for (PairResult p : r.pairs()) {
-            String who = p.model() + " on " + p.device();
-            String other = stems.put(Reports.stem(p), who);
-            if (other != null) {
-                throw new MojoExecutionException("erg: " + other + " and " + who + " would write the same report"
-                        + " files (" + Reports.stem(p) + ".*); give the models or device files distinct names");
-            }
-        }
-        return r;
-    }
-
-    /** Logs the console rendering, writes the reports and logs where they went. */
-    void logAndWrite(GateResult r, Settings s) {
+    /** Logs the console rendering, the report files and the notes. */
+    void log(RunOutcome o, boolean baselineNote) {
+        GateResult r = o.result();
         for (String line : Reports.console(r).split("\n")) {
             getLog().info(line);
         }
-        List<Path> files = Reports.write(r, s.outputDirectory, s.formats);
-        for (Path f : files) {
+        for (Path f : o.reports()) {
             String name = f.getFileName().toString().toLowerCase(Locale.ROOT);
             getLog().info(PREFIX + (name.endsWith(".html") ? "HTML report: " : "report: ") + f);
         }
         String note = r.baselineNote();
-        if (note != null) {
-            getLog().warn(PREFIX + note);
+        if (baselineNote && note != null) {
+            getLog().warn(PREFIX + note + "; create it with 'mvn erg:baseline' and commit it");
         }
         for (String n : r.notes()) {
             getLog().warn(PREFIX + n);
         }
+    }
+
+    /**
+     * Fails the build once, listing every violation, when some check failed and violations fail the
+     * build; otherwise warns that they do not.
+     */
+    void verdict(RunOutcome o, String reportOnlyHint) throws MojoFailureException {
+        GateResult r = o.result();
+        if (r.passed()) {
+            return;
+        }
+        if (o.failed()) {
+            throw new MojoFailureException(r.failureMessage());
+        }
+        int n = r.failures().size();
+        getLog().warn(PREFIX + n + (n == 1 ? " limit does" : " limits do") + " not hold; " + reportOnlyHint);
     }
 }

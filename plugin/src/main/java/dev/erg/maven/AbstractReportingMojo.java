@@ -3,9 +3,10 @@ package dev.erg.maven;
 import dev.erg.error.BadInputException;
 import dev.erg.budget.Budget;
 import dev.erg.report.Reports;
+import dev.erg.run.DeviceSpec;
+import dev.erg.run.RunRequest;
 import java.io.File;
-import java.nio.file.Path;
-import java.util.Set;
+import java.util.List;
 import org.apache.maven.plugin.MojoExecutionException;
 import org.apache.maven.plugins.annotations.Parameter;
 
@@ -14,10 +15,18 @@ abstract class AbstractReportingMojo extends AbstractErgMojo {
     /**
      * The limits every model must hold on every device: {@code targetFps}, {@code maxPowerMw},
      * {@code maxEnergyPerFrameUj}, {@code maxLatencyMs}, {@code maxWeightKib}, {@code maxActivationKib}.
-     * Each is optional.
+     * Each is optional. A {@code <budget>} inside a {@code <model>} or a {@code <deviceBudget>}
+     * overrides it limit by limit.
      */
     @Parameter
     BudgetConfig budget;
+
+    /**
+     * Limits of single devices: each {@code <deviceBudget>} names one of the {@code <devices>} and
+     * gives a {@code <budget>} that overrides the plugin's limit by limit (a model's own overrides it).
+     */
+    @Parameter
+    List<DeviceBudgetConfig> deviceBudgets;
 
     /** The growth allowed per metric over the baseline, in percent. Used only when a baseline is configured. */
     @Parameter(property = "erg.maxGrowthPercent", defaultValue = "5")
@@ -32,43 +41,41 @@ abstract class AbstractReportingMojo extends AbstractErgMojo {
     File outputDirectory;
 
     @Override
-    Budget budgetSetting() throws MojoExecutionException {
-        if (budget == null) {
-            return Budget.none();
-        }
-        try {
-            return Budget.builder().targetFps(budget.getTargetFps()).maxPowerMw(budget.getMaxPowerMw())
-                    .maxEnergyPerFrameUj(budget.getMaxEnergyPerFrameUj()).maxLatencyMs(budget.getMaxLatencyMs())
-                    .maxWeightKib(budget.getMaxWeightKib()).maxActivationKib(budget.getMaxActivationKib()).build();
-        } catch (BadInputException e) {
-            throw new MojoExecutionException("erg: " + e.getMessage(), e);
-        }
-    }
-
-    @Override
-    Double growthSetting() throws MojoExecutionException {
-        if (maxGrowthPercent != null && (maxGrowthPercent.isNaN() || maxGrowthPercent.isInfinite()
-                || maxGrowthPercent < 0)) {
-            throw new MojoExecutionException("erg: maxGrowthPercent: must be a number of 0 or more (got "
-                    + maxGrowthPercent + ")");
-        }
-        return maxGrowthPercent;
-    }
-
-    @Override
-    Set<String> formatsSetting() throws MojoExecutionException {
-        try {
-            return Reports.parseFormats(formats == null ? "" : formats);
-        } catch (BadInputException e) {
-            throw new MojoExecutionException("erg: " + e.getMessage(), e);
-        }
-    }
-
-    @Override
-    Path outputSetting() throws MojoExecutionException {
+    void configure(RunRequest.Builder b) throws MojoExecutionException {
         if (outputDirectory == null) {
             throw new MojoExecutionException("erg: outputDirectory: not set");
         }
-        return outputDirectory.toPath();
+        b.budget(budget == null ? Budget.none() : budget.toBudget("budget"))
+                .maxGrowthPercent(maxGrowthPercent)
+                .reports(outputDirectory.toPath(), Reports.parseFormats(formats == null ? "" : formats));
+        if (deviceBudgets != null) {
+            for (int i = 0; i < deviceBudgets.size(); i++) {
+                DeviceBudgetConfig d = deviceBudgets.get(i);
+                String label = d == null || d.getDevice() == null ? "" : d.getDevice().strip();
+                if (devices == null || !devices.stream().map(String::strip).toList().contains(label)) {
+                    throw new BadInputException("deviceBudgets[" + i + "]: '" + label + "' is not one of the"
+                            + " configured devices");
+                }
+            }
+        }
+    }
+
+    @Override
+    boolean checksBudgets() {
+        return true;
+    }
+
+    @Override
+    DeviceSpec device(String label) {
+        DeviceSpec d = new DeviceSpec(label);
+        if (deviceBudgets != null) {
+            for (int i = 0; i < deviceBudgets.size(); i++) {
+                DeviceBudgetConfig c = deviceBudgets.get(i);
+                if (c != null && c.getDevice() != null && c.getDevice().strip().equals(label) && c.getBudget() != null) {
+                    d = d.withBudget(c.getBudget().toBudget("deviceBudgets[" + i + "].budget"));
+                }
+            }
+        }
+        return d;
     }
 }

@@ -1,8 +1,14 @@
 package dev.erg.maven;
 
+import dev.erg.budget.Budget;
+import java.util.LinkedHashMap;
+import java.util.Map;
+
 /**
- * The {@code <budget>} element of the plugin configuration: every limit is optional and holds for
- * every model on every device.
+ * A {@code <budget>} element of the plugin configuration: every limit is optional. The plugin's
+ * {@code <budget>} holds for every model on every device; one inside a {@code <model>} or a
+ * {@code <deviceBudget>} overrides it limit by limit. The element names are the keys of the library's
+ * budget rules.
  */
 public class BudgetConfig {
     /** Minimum frames per second; average power is taken at this rate. */
@@ -64,5 +70,26 @@ public class BudgetConfig {
 
     public void setMaxActivationKib(Double maxActivationKib) {
         this.maxActivationKib = maxActivationKib;
+    }
+
+    /** The limits by key, unset ones as null, in the order of the elements. */
+    Map<String, Double> limits() {
+        Map<String, Double> m = new LinkedHashMap<>();
+        m.put("targetFps", targetFps);
+        m.put("maxPowerMw", maxPowerMw);
+        m.put("maxEnergyPerFrameUj", maxEnergyPerFrameUj);
+        m.put("maxLatencyMs", maxLatencyMs);
+        m.put("maxWeightKib", maxWeightKib);
+        m.put("maxActivationKib", maxActivationKib);
+        return m;
+    }
+
+    /** The library's budget; a bad limit is the library's one-line message naming {@code where}. */
+    Budget toBudget(String where) {
+        Budget.Builder b = Budget.builder(where);
+        for (Map.Entry<String, Double> e : limits().entrySet()) {
+            b.limit(e.getKey(), e.getValue());
+        }
+        return b.build();
     }
 }

@@ -9,10 +9,12 @@ import static org.junit.jupiter.api.Assertions.assertTrue;
 import dev.erg.error.BadInputException;
 import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
-import dev.erg.budget.Gate;
 import dev.erg.budget.GateResult;
 import dev.erg.device.DeviceLoader;
 import dev.erg.maven.it.ItFixtures;
+import dev.erg.run.ModelSpec;
+import dev.erg.run.RunRequest;
+import dev.erg.run.Runner;
 import java.io.File;
 import java.nio.charset.StandardCharsets;
 import java.nio.file.Files;
@@ -59,8 +61,9 @@ class CheckMojoBehaviourTest {
     }
 
     private GateResult library(File model, Budget budget) {
-        return Gate.evaluate(List.of(new Gate.ModelSpec(model.getAbsolutePath(), model.toPath(), Map.of("batch", 1L))),
-                List.of(DeviceLoader.load("preset:feeder-npu", dir)), budget, null, null, null, line -> { });
+        return Runner.run(RunRequest.builder()
+                .model(new ModelSpec(model.getAbsolutePath(), model.toPath(), Map.of("batch", 1L)))
+                .device("preset:feeder-npu").deviceBase(dir).budget(budget).build(), Runner.Progress.NONE).result();
     }
 
     @Test
@@ -77,6 +80,83 @@ class CheckMojoBehaviourTest {
         assertEquals(expected.failureMessage(), e.getMessage());
         assertTrue(log.lines.contains("[INFO] erg: analysing " + model.getAbsolutePath()));
         assertTrue(Files.isRegularFile(dir.resolve("reports/net.feeder-npu.json")), "reports before the failure");
+    }
+
+    @Test
+    @InjectMojo(goal = "check", pom = POM)
+    void anUnmodelledOperatorIsAViolationListedWithTheBudgets(CheckMojo mojo) {
+        File model = dir.resolve("custom.onnx").toFile();
+        ItFixtures.customOpCnn(model);
+        configure(mojo, model, "preset:feeder-npu").budget = budget(1e9, 1e12);
+        mojo.failOnUnmodelled = true;
+        mojo.setLog(new CapturingLog());
+        MojoFailureException e = assertThrows(MojoFailureException.class, mojo::execute);
+        GateResult expected = Runner.run(RunRequest.builder()
+                .model(new ModelSpec(model.getAbsolutePath(), model.toPath(), Map.of("batch", 1L)))
+                .device("preset:feeder-npu").deviceBase(dir).failOnUnmodelled(true)
+                .budget(Budget.builder().targetFps(1e9).maxPowerMw(1e12).build()).build(),
+                Runner.Progress.NONE).result();
+        assertEquals(expected.failureMessage(), e.getMessage());
+        assertTrue(e.getMessage().startsWith("2 violations (1 budget, 1 policy):"), e.getMessage());
+        assertTrue(e.getMessage().contains(": the analysis is incomplete: no rule for com.example.Denoise (1 node)"),
+                e.getMessage());
+    }
+
+    @Test
+    @InjectMojo(goal = "check", pom = POM)
+    void reportOnlyModeLogsTheViolationsAndGoesOn(CheckMojo mojo) throws Exception {
+        File model = dir.resolve("net.onnx").toFile();
+        ItFixtures.smallCnn(model);
+        configure(mojo, model, "preset:feeder-npu").budget = budget(30000, 1);
+        mojo.failOnViolation = false;
+        CapturingLog log = new CapturingLog();
+        mojo.setLog(log);
+        mojo.execute();
+        GateResult expected = library(model, Budget.builder().targetFps(30000.0).maxPowerMw(1.0).build());
+        for (String line : ("erg: " + expected.failureMessage()).split("\n")) {
+            assertTrue(log.lines.contains("[INFO] " + line), line);
+        }
+        assertTrue(log.lines.contains("[WARNING] erg: 2 limits do not hold; failOnViolation is false, so the build"
+                + " goes on"), log.lines.toString());
+    }
+
+    @Test
+    @InjectMojo(goal = "check", pom = POM)
+    void aModelsOwnBudgetOverridesThePluginsLimitByLimit(CheckMojo mojo) throws Exception {
+        File model = dir.resolve("net.onnx").toFile();
+        ItFixtures.smallCnn(model);
+        configure(mojo, model, "preset:feeder-npu").budget = budget(30000, 1);
+        BudgetConfig own = new BudgetConfig();
+        own.setTargetFps(1.0);
+        mojo.models.get(0).setBudget(own);
+        mojo.setLog(new CapturingLog());
+        MojoFailureException e = assertThrows(MojoFailureException.class, mojo::execute);
+        GateResult expected = library(model, Budget.builder().targetFps(1.0).maxPowerMw(1.0).build());
+        assertEquals(1, expected.failures().size(), "1 fps is met; 1 mW still fails");
+        assertEquals(expected.failureMessage(), e.getMessage());
+    }
+
+    @Test
+    @InjectMojo(goal = "baseline", pom = POM)
+    void baselineKeepsTheEntriesOfPairsNotRun(BaselineMojo mojo) throws Exception {
+        File other = dir.resolve("other.onnx").toFile();
+        ItFixtures.grownCnn(other);
+        Path file = dir.resolve("erg/baseline.json");
+        ItFixtures.baseline(dir.toFile(), "other.onnx", other, Map.of("batch", 1L), List.of("preset:feeder-npu"),
+                file.toFile());
+        File model = dir.resolve("net.onnx").toFile();
+        ItFixtures.smallCnn(model);
+        configure(mojo, model, "preset:feeder-npu").baseline = "erg/baseline.json";
+        CapturingLog log = new CapturingLog();
+        mojo.setLog(log);
+        mojo.execute();
+        Baseline b = Baseline.read(file);
+        assertEquals(2, b.size());
+        assertTrue(b.entry("other.onnx", "preset:feeder-npu") != null, "the entry of the model not run is kept");
+        assertTrue(b.entry(model.getAbsolutePath(), "preset:feeder-npu") != null);
+        assertEquals(List.of("[INFO] erg: analysing " + model.getAbsolutePath(),
+                "[INFO] erg: estimating " + model.getAbsolutePath() + " on preset:feeder-npu",
+                "[INFO] erg: baseline written: " + file + " (1 entry refreshed, 2 in all)"), log.lines);
     }
 
     @Test
@@ -102,7 +182,7 @@ class CheckMojoBehaviourTest {
         mojo.setLog(log);
         mojo.execute();
         assertTrue(log.lines.contains("[WARNING] erg: no baseline at baseline.json: growth is not checked; create it"
-                + " with 'mvn erg:baseline' (or 'erg check ... --write-baseline') and commit it"), log.lines.toString());
+                + " with 'mvn erg:baseline' and commit it"), log.lines.toString());
         assertTrue(log.lines.contains("[INFO] erg: no budget and no baseline growth to check"), log.lines.toString());
     }
 
@@ -144,7 +224,7 @@ class CheckMojoBehaviourTest {
     // ---- configuration faults: each a one-line MojoExecutionException naming the element ----
 
     private static String fault(AbstractErgMojo mojo) {
-        MojoExecutionException e = assertThrows(MojoExecutionException.class, mojo::settings);
+        MojoExecutionException e = assertThrows(MojoExecutionException.class, mojo::request);
         assertFalse(e.getMessage().contains("\n"), e.getMessage());
         return e.getMessage();
     }
@@ -222,10 +302,12 @@ class CheckMojoBehaviourTest {
         configure(mojo, a, "preset:feeder-npu");
         mojo.models = List.of(new ModelConfig("a/net.onnx", Map.of("batch", "1")),
                 new ModelConfig("b/net.onnx", Map.of("batch", "1")));
-        mojo.setLog(new CapturingLog());
+        CapturingLog log = new CapturingLog();
+        mojo.setLog(log);
         MojoExecutionException e = assertThrows(MojoExecutionException.class, mojo::execute);
         assertEquals("erg: a/net.onnx on preset:feeder-npu and b/net.onnx on preset:feeder-npu would write the same"
                 + " report files (net.feeder-npu.*); give the models or device files distinct names", e.getMessage());
         assertNull(dir.resolve("reports").toFile().list());
+        assertEquals(List.of(), log.lines, "refused before the first model is read");
     }
 }

@@ -1,19 +1,17 @@
 package dev.erg.maven.it;
 
 import dev.erg.budget.Baseline;
-import dev.erg.budget.Budget;
-import dev.erg.budget.Gate;
 import dev.erg.budget.GateResult;
-import dev.erg.device.DeviceLoader;
-import dev.erg.device.DeviceProfile;
 import dev.erg.onnx.ElemType;
 import dev.erg.onnx.OnnxWriter;
+import dev.erg.run.ModelSpec;
+import dev.erg.run.RunRequest;
+import dev.erg.run.Runner;
 import java.io.File;
 import java.io.IOException;
 import java.io.UncheckedIOException;
 import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 
@@ -41,6 +39,21 @@ public final class ItFixtures {
      */
     public static void grownCnn(File file) {
         write(file, cnn(32, true));
+    }
+
+    /**
+     * The small CNN with one node outside the ONNX standard set between relu1 and conv2
+     * ({@code com.example.Denoise}): it has no rule, so it and the nodes after it are not priced.
+     */
+    public static void customOpCnn(File file) {
+        OnnxWriter.Graph g = new OnnxWriter.Graph("it_custom")
+                .inputDims("image", ElemType.FLOAT, "batch", 3L, 32L, 32L)
+                .weight("conv1.w", ElemType.FLOAT, 8, 3, 3, 3)
+                .node("Conv", "conv1", List.of("image", "conv1.w"), List.of("c1"), OnnxWriter.ints("pads", 1, 1, 1, 1))
+                .node("Relu", "relu1", List.of("c1"), List.of("r1"))
+                .domainNode("com.example", "Denoise", "denoise", List.of("r1"), List.of("d1"))
+                .node("Relu", "relu2", List.of("d1"), List.of("features"));
+        write(file, g.output("features", ElemType.FLOAT));
     }
 
     private static OnnxWriter.Graph cnn(long conv2Filters, boolean conv3) {
@@ -82,12 +95,12 @@ public final class ItFixtures {
      */
     public static void baseline(File basedir, String label, File modelFile, Map<String, Long> dims,
                                 List<String> devices, File out) {
-        List<DeviceProfile> ds = new ArrayList<>();
+        RunRequest.Builder b = RunRequest.builder().model(new ModelSpec(label, modelFile.toPath(), dims))
+                .deviceBase(basedir.toPath());
         for (String d : devices) {
-            ds.add(DeviceLoader.load(d, basedir.toPath()));
+            b.device(d);
         }
-        GateResult r = Gate.evaluate(List.of(new Gate.ModelSpec(label, modelFile.toPath(), dims)), ds,
-                Budget.none(), null, null, null, line -> { });
+        GateResult r = Runner.run(b.build(), Runner.Progress.NONE).result();
         Baseline.of(r.pairs()).write(out.toPath());
     }
 

@@ -1,0 +1,84 @@
+package dev.erg.run;
+
+import dev.erg.budget.Budget;
+import dev.erg.error.BadInputException;
+import java.nio.file.Path;
+import java.util.Collections;
+import java.util.LinkedHashMap;
+import java.util.Map;
+
+/**
+ * One model of a run: its label (the path as the user wrote it, which names it in every message and
+ * report), its file, the values of its symbolic dims, and its own budget limits.
+ *
+ * <p>Immutable; each {@code with...} method returns a changed copy, so that a new per-model setting
+ * (such as bindings of whole input shapes or constant input values) is one more field and one more
+ * {@code with} method, and no caller that does not use it changes.
+ */
+public final class ModelSpec {
+    private final String label;
+    private final Path file;
+    private final Map<String, Long> dims;
+    private final Budget budget;
+
+    public ModelSpec(String label, Path file) {
+        this(label, file, Map.of(), Budget.none());
+    }
+
+    public ModelSpec(String label, Path file, Map<String, Long> dims) {
+        this(label, file, dims, Budget.none());
+    }
+
+    private ModelSpec(String label, Path file, Map<String, Long> dims, Budget budget) {
+        this.label = label;
+        this.file = file;
+        this.dims = Collections.unmodifiableMap(new LinkedHashMap<>(dims));
+        this.budget = budget == null ? Budget.none() : budget;
+    }
+
+    /** This model with {@code dims} as the values of its symbolic dims. */
+    public ModelSpec withDims(Map<String, Long> dims) {
+        return new ModelSpec(label, file, dims, budget);
+    }
+
+    /** This model with its own limits: they override the device's and the run's, limit by limit. */
+    public ModelSpec withBudget(Budget budget) {
+        return new ModelSpec(label, file, dims, budget);
+    }
+
+    public String label() {
+        return label;
+    }
+
+    public Path file() {
+        return file;
+    }
+
+    /** The symbolic dim bindings, in the order given. */
+    public Map<String, Long> dims() {
+        return dims;
+    }
+
+    /** The model's own limits (empty when it has none). */
+    public Budget budget() {
+        return budget;
+    }
+
+    /**
+     * A dim value as written ("1", " 49 "): a whole number of 1 or more, or a one-line error that
+     * starts with {@code where}.
+     */
+    public static long parseDim(String where, String text) {
+        String v = text == null ? "" : text.strip();
+        long n;
+        try {
+            n = Long.parseLong(v);
+        } catch (NumberFormatException x) {
+            n = -1;
+        }
+        if (n < 1) {
+            throw new BadInputException(where + ": must be a whole number of 1 or more (got '" + v + "')");
+        }
+        return n;
+    }
+}
