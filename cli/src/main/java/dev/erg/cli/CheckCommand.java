@@ -87,7 +87,7 @@ final class CheckCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Map<String, Long> bound = modelOptions.bound(spec);
+        dev.erg.graph.InputBindings bindings = modelOptions.bindings(spec);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
@@ -116,7 +116,7 @@ final class CheckCommand implements Callable<Integer> {
         }
         List<Gate.ModelSpec> specs = new ArrayList<>();
         for (Path m : models) {
-            specs.add(new Gate.ModelSpec(m.toString(), m, bound));
+            specs.add(new Gate.ModelSpec(m.toString(), m, bindings));
         }
         Baseline base = baseline == null ? null : Baseline.read(baseline);
         GateResult result = Gate.evaluate(specs, profiles, budget, base, baseline == null ? null : baseline.toString(),

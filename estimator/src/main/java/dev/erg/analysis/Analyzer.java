@@ -3,6 +3,7 @@ package dev.erg.analysis;
 import dev.erg.error.BadInputException;
 import dev.erg.graph.Graph;
 import dev.erg.graph.GraphBuilder;
+import dev.erg.graph.InputBindings;
 import dev.erg.onnx.OnnxModel;
 import dev.erg.onnx.OnnxReader;
 import dev.erg.shape.ShapeInference;
@@ -34,8 +35,21 @@ public final class Analyzer {
      *                           {@code failOnUnmodelled}, when some node has no rule
      */
     public static ModelWorkload analyze(Path file, Map<String, Long> dims, AnalysisOptions options) {
+        return analyze(file, InputBindings.ofDims(dims), options);
+    }
+
+    /**
+     * Analyses the model in {@code file} with the user's {@code bindings} of its runtime inputs:
+     * symbolic dims, whole input shapes and constant input values (folded like initializers). The
+     * result's graph lists the bindings in effect ({@code graph().bindings()}).
+     *
+     * @throws BadInputException when the file, the graph or a binding is unusable (a value that does not
+     *                           fit its input's declared type and shape, a name that is no input), or,
+     *                           with {@code failOnUnmodelled}, when some node has no rule
+     */
+    public static ModelWorkload analyze(Path file, InputBindings bindings, AnalysisOptions options) {
         OnnxModel model = OnnxReader.read(file);
-        Graph graph = GraphBuilder.build(model, dims);
+        Graph graph = GraphBuilder.build(model, bindings);
         ShapeInference.run(graph);
         ModelWorkload w = WorkloadCounter.count(graph);
         return options.failOnUnmodelled() ? w.requireComplete() : w;

@@ -6,6 +6,7 @@ import dev.erg.device.DeviceProfile;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Estimator;
 import dev.erg.estimate.NodeEstimate;
+import dev.erg.graph.InputBindings;
 import dev.erg.workload.ModelWorkload;
 import java.nio.file.Path;
 import java.util.ArrayList;
@@ -28,11 +29,22 @@ public final class Gate {
         final String label;
         final Path file;
         final Map<String, Long> dims;
+        final InputBindings bindings;
 
         public ModelSpec(String label, Path file, Map<String, Long> dims) {
+            this(label, file, InputBindings.ofDims(dims));
+        }
+
+        /** A model with every kind of input binding: symbolic dims, whole shapes, constant values. */
+        public ModelSpec(String label, Path file, InputBindings bindings) {
             this.label = label;
             this.file = file;
-            this.dims = Map.copyOf(dims);
+            this.dims = bindings.dims();
+            this.bindings = bindings;
+        }
+
+        public InputBindings bindings() {
+            return bindings;
         }
 
         public String label() {
@@ -73,7 +85,7 @@ public final class Gate {
         List<String> notes = new ArrayList<>();
         for (ModelSpec m : models) {
             progress.say("analysing " + m.label);
-            ModelWorkload w = Analyzer.analyze(m.file, m.dims, options);
+            ModelWorkload w = Analyzer.analyze(m.file, m.bindings, options);
             notes.addAll(Analyzer.unusedDimNotes(w, m.dims));
             if (!w.complete()) {
                 notes.add(w.incompleteness() + ". Those nodes are not priced, so every total is a lower bound"

@@ -24,17 +24,28 @@ public final class GraphBuilder {
     private final String file;
     private final Map<String, Long> opsets;
     private final Map<String, Long> dimBindings;
+    private final InputBindings bindings;
     private final Map<String, Long> used = new TreeMap<>();
 
-    private GraphBuilder(String file, Map<String, Long> opsets, Map<String, Long> dimBindings) {
+    private GraphBuilder(String file, Map<String, Long> opsets, InputBindings bindings) {
         this.file = file;
         this.opsets = opsets;
-        this.dimBindings = dimBindings;
+        this.bindings = bindings;
+        this.dimBindings = bindings.dims();
     }
 
     /** Builds the main graph of {@code model}; {@code dims} binds symbolic dim names to values. */
     public static Graph build(OnnxModel model, Map<String, Long> dims) {
-        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), dims);
+        return build(model, InputBindings.ofDims(dims));
+    }
+
+    /**
+     * Builds the main graph of {@code model} with the user's {@code bindings}: symbolic dims, whole
+     * input shapes and constant input values. A shape or value for a name that is no graph input, or
+     * a value that does not fit its input's declared type and shape, is a {@link BadInputException}.
+     */
+    public static Graph build(OnnxModel model, InputBindings bindings) {
+        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), bindings);
         return b.build(model, model.graph(), Map.of());
     }
 
@@ -43,7 +54,7 @@ public final class GraphBuilder {
      * scope. Its formal inputs get no shape here: the caller sets them.
      */
     public static Graph buildSubgraph(OnnxModel model, GraphDef sub, Map<String, Value> outerScope) {
-        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), Map.of());
+        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), InputBindings.NONE);
         return b.build(model, sub, outerScope);
     }
 
@@ -53,6 +64,9 @@ public final class GraphBuilder {
 
     private Graph build(OnnxModel model, GraphDef g, Map<String, Value> outer) {
         boolean isMain = outer.isEmpty() && g == model.graph();
+        if (isMain) {
+            checkBindingsNamed(g);
+        }
         Map<String, Value> values = new LinkedHashMap<>(
                 (int) ((g.initializers().size() + g.inputs().size() + 2L * g.nodes().size()) / 0.75f) + 16);
         List<TensorDef> inits = g.initializers();
@@ -67,10 +81,10 @@ public final class GraphBuilder {
             Value v = new Value(in.name());
             v.markGraphInput();
             if (isMain) {
-                v.setType(in.type(), inputDims(in));
                 if (in.type() == null) {
                     throw bad("graph input '" + in.name() + "' declares no tensor element type");
                 }
+                InputValues.bind(file, in, v, inputDims(in), bindings);
             }
             values.put(in.name(), v);
             inputs.add(v);
@@ -100,9 +114,8 @@ public final class GraphBuilder {
         } else {
             order = kahn(nodes, depsOf);
         }
-        for (int i = 0; i < order.size(); i++) {
-            connect(order.get(i));
-        }
+        // Outputs are checked before anything is linked into the enclosing scopes' values, so that a
+        // subgraph that fails to build leaves them as they were.
         List<Value> outputs = new ArrayList<>();
         for (ValueDef o : g.outputs()) {
             Value v = values.get(o.name());
@@ -112,10 +125,16 @@ public final class GraphBuilder {
             if (v == null) {
                 throw bad("graph output '" + o.name() + "' is produced by no node, input or initializer");
             }
-            v.markGraphOutput();
             outputs.add(v);
         }
-        return new Graph(model, order, values, inputs, outputs, inits, used, outer);
+        for (int i = 0; i < order.size(); i++) {
+            connect(order.get(i));
+        }
+        for (Value v : outputs) {
+            v.markGraphOutput();
+        }
+        InputBindings inEffect = isMain ? new InputBindings(used, bindings.shapes(), bindings.values()) : InputBindings.NONE;
+        return new Graph(model, order, values, inputs, outputs, inits, inEffect, outer);
     }
 
     // The loops over every node call small methods, so that the JIT compiles those rather than the
@@ -375,9 +394,39 @@ public final class GraphBuilder {
         return "'" + name + "' (" + d.opType() + ")";
     }
 
+    /** A shape or value bound to a name that is no runtime input is an error: a typo would go unnoticed. */
+    private void checkBindingsNamed(GraphDef g) {
+        java.util.Set<String> names = new java.util.TreeSet<>();
+        java.util.Set<String> inits = new HashSet<>();
+        for (TensorDef t : g.initializers()) {
+            inits.add(t.name());
+        }
+        for (ValueDef in : g.inputs()) {
+            if (!inits.contains(in.name())) {
+                names.add(in.name());
+            }
+        }
+        java.util.Set<String> bound = new java.util.TreeSet<>(bindings.shapes().keySet());
+        bound.addAll(bindings.values().keySet());
+        for (String name : bound) {
+            if (!names.contains(name)) {
+                throw bad("a shape or value is bound to '" + name + "', which is not a runtime graph input (the inputs are "
+                        + (names.isEmpty() ? "none" : String.join(", ", names)) + ")");
+            }
+        }
+    }
+
     private long[] inputDims(ValueDef in) {
+        java.util.List<Long> given = bindings.shapes().get(in.name());
+        if (given != null) {
+            return givenShape(in, given);
+        }
         if (in.dims() == null) {
-            throw bad("graph input '" + in.name() + "' declares no shape; erg needs the input shape");
+            if (bindings.values().containsKey(in.name())) {
+                return null; // the value's own shape
+            }
+            throw bad("graph input '" + in.name() + "' declares no shape; bind it (CLI: --shape " + in.name()
+                    + "=1x...; Maven: <shapes><" + in.name() + ">1x...</" + in.name() + "></shapes>)");
         }
         long[] dims = new long[in.dims().size()];
         for (int k = 0; k < dims.length; k++) {
@@ -396,18 +445,77 @@ public final class GraphBuilder {
                 }
                 dims[k] = bound;
                 used.put(d.param(), bound);
+            } else if (bindings.values().containsKey(in.name())) {
+                dims[k] = -1; // the bound value gives it
             } else {
-                throw bad("graph input '" + in.name() + "' has axis " + k + " with neither a value nor a name");
+                throw bad("graph input '" + in.name() + "' has axis " + k + " of " + declared(in)
+                        + " with neither a value nor a name; bind the whole shape (CLI: --shape " + in.name()
+                        + "=...; Maven: <shapes><" + in.name() + ">...</" + in.name() + "></shapes>), e.g. "
+                        + example(in));
             }
         }
+        checkProduct(in.name(), dims);
+        return dims;
+    }
+
+    /** A whole shape given by the user: its rank and fixed dims must agree with the declaration. */
+    private long[] givenShape(ValueDef in, java.util.List<Long> given) {
+        long[] dims = new long[given.size()];
+        for (int k = 0; k < dims.length; k++) {
+            dims[k] = given.get(k);
+        }
+        if (in.dims() != null) {
+            if (in.dims().size() != dims.length) {
+                throw bad("graph input '" + in.name() + "' is declared " + declared(in) + " (rank " + in.dims().size()
+                        + ") but is bound to the shape " + InputBindings.shapeText(given) + " (rank " + dims.length + ")");
+            }
+            for (int k = 0; k < dims.length; k++) {
+                ValueDef.Dim d = in.dims().get(k);
+                if (d.isFixed() && d.value() != dims[k]) {
+                    throw bad("graph input '" + in.name() + "' is declared " + declared(in) + " but is bound to the shape "
+                            + InputBindings.shapeText(given) + ": axis " + k + " is fixed at " + d.value());
+                }
+                if (!d.isFixed() && d.param() != null) {
+                    Long other = dimBindings.get(d.param());
+                    if (other != null && other != dims[k]) {
+                        throw bad("graph input '" + in.name() + "' is bound to the shape " + InputBindings.shapeText(given)
+                                + ", but its axis " + k + " is the dim '" + d.param() + "', bound to " + other);
+                    }
+                }
+            }
+        }
+        checkProduct(in.name(), dims);
+        return dims;
+    }
+
+    private void checkProduct(String name, long[] dims) {
         long n = 1;
         for (long d : dims) {
             try {
-                n = Math.multiplyExact(n, d);
+                n = Math.multiplyExact(n, Math.max(d, 0));
             } catch (ArithmeticException e) {
-                throw bad("graph input '" + in.name() + "' has dims whose product overflows 64 bits");
+                throw bad("graph input '" + name + "' has dims whose product overflows 64 bits");
             }
         }
-        return dims;
+    }
+
+    /** The declared shape as text: {@code [?, ?]}, {@code [2, ?, 128]}, {@code [batch, 3]}. */
+    static String declared(ValueDef in) {
+        StringBuilder b = new StringBuilder("[");
+        for (int k = 0; k < in.dims().size(); k++) {
+            ValueDef.Dim d = in.dims().get(k);
+            b.append(k == 0 ? "" : ", ").append(d.isFixed() ? String.valueOf(d.value()) : d.param() != null ? d.param() : "?");
+        }
+        return b.append(']').toString();
+    }
+
+    /** An example shape for the message: the declared dims, an unknown one shown as N. */
+    private static String example(ValueDef in) {
+        StringBuilder b = new StringBuilder(in.name()).append('=');
+        for (int k = 0; k < in.dims().size(); k++) {
+            ValueDef.Dim d = in.dims().get(k);
+            b.append(k == 0 ? "" : "x").append(d.isFixed() ? String.valueOf(d.value()) : "N");
+        }
+        return b.toString();
     }
 }

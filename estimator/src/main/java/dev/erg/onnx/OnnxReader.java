@@ -3,6 +3,7 @@ package dev.erg.onnx;
 import com.google.protobuf.CodedInputStream;
 import com.google.protobuf.WireFormat;
 import dev.erg.error.BadInputException;
+import dev.erg.error.InputFiles;
 import java.io.FileInputStream;
 import java.io.IOException;
 import java.io.InputStream;
@@ -27,6 +28,8 @@ import java.util.Map;
 public final class OnnxReader {
     /** Payloads up to this many bytes are kept: shape constants, axes, scales. Larger ones are skipped. */
     public static final int KEEP_PAYLOAD_BYTES = 4096;
+    /** The largest model file: a protobuf message is at most 2^31 - 1 bytes (2 GiB less one byte). */
+    public static final long MAX_MODEL_BYTES = Integer.MAX_VALUE;
     private static final int MAX_GRAPH_DEPTH = 64;
     private static final int BUFFER = 64 * 1024;
 
@@ -70,10 +73,7 @@ public final class OnnxReader {
 
     /** Reads the model in {@code file}. */
     public static OnnxModel read(Path file) {
-        if (!Files.isRegularFile(file)) {
-            throw new BadInputException(file + (Files.isDirectory(file) ? ": is a folder, not a model file"
-                    : ": no such model file"));
-        }
+        InputFiles.requireRegular(file, file.toString(), "model file");
         long size;
         try {
             size = Files.size(file);
@@ -83,9 +83,9 @@ public final class OnnxReader {
         if (size == 0) {
             throw new BadInputException(file + ": the file is empty, not an ONNX model");
         }
-        if (size > Integer.MAX_VALUE) {
+        if (size > MAX_MODEL_BYTES) {
             throw new BadInputException(file + ": the file is " + size
-                    + " bytes; a protobuf ModelProto cannot exceed 2 GiB (large weights belong in external data)");
+                    + " bytes; a protobuf ModelProto holds at most " + MAX_MODEL_BYTES + " bytes (large weights belong in external data)");
         }
         OnnxReader r = new OnnxReader(file, size);
         try (InputStream s = new FileInputStream(file.toFile())) {
@@ -141,6 +141,10 @@ public final class OnnxReader {
     private int length(String what) throws IOException {
         long len = in.readRawVarint64();
         long left = in.getBytesUntilLimit();
+        if (left < 0) {
+            // No limit pushed, or one ending exactly at 2^31 - 1, which the stream reports as "no limit" (-1).
+            left = fileSize - in.getTotalBytesRead();
+        }
         if (len < 0 || len > left) {
             long pos = in.getTotalBytesRead();
             if (len < 0 || pos + len > fileSize) {

@@ -5,6 +5,7 @@ import dev.erg.error.BadInputException;
 import dev.erg.budget.Baseline;
 import dev.erg.budget.Budget;
 import dev.erg.budget.Gate;
+import dev.erg.graph.InputBindings;
 import dev.erg.budget.GateResult;
 import dev.erg.budget.PairResult;
 import dev.erg.device.DeviceLoader;
@@ -131,7 +132,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
                         + before + "])");
             }
             specs.add(new Gate.ModelSpec(label, resolve(base, label, where + ".file"),
-                    dimensions(where + " (" + label + ")", m.getDimensions())));
+                    bindings(where + " (" + label + ")", m)));
         }
         if (devices == null || devices.isEmpty()) {
             throw new MojoExecutionException("erg: no devices configured; add <devices><device>preset:ID</device>"
@@ -185,6 +186,17 @@ abstract class AbstractErgMojo extends AbstractMojo {
         } catch (java.nio.file.InvalidPathException e) {
             throw new MojoExecutionException("erg: " + where + ": not a valid path: " + path + " (" + e.getReason()
                     + ")");
+        }
+    }
+
+    /** The model's input bindings: {@code <dimensions>}, {@code <shapes>} and {@code <values>}. */
+    private static InputBindings bindings(String where, ModelConfig m) throws MojoExecutionException {
+        Map<String, Long> dims = dimensions(where, m.getDimensions());
+        try {
+            return InputBindings.parse(dims, m.getShapes() == null ? Map.of() : m.getShapes(),
+                    m.getValues() == null ? Map.of() : m.getValues(), "erg: " + where);
+        } catch (BadInputException e) {
+            throw new MojoExecutionException(e.getMessage(), e);
         }
     }
 

@@ -11,6 +11,8 @@ import java.util.Map;
  * &lt;model&gt;
  *   &lt;file&gt;src/main/onnx/feeder.onnx&lt;/file&gt;
  *   &lt;dimensions&gt;&lt;batch&gt;1&lt;/batch&gt;&lt;/dimensions&gt;
+ *   &lt;shapes&gt;&lt;input&gt;1x576&lt;/input&gt;&lt;/shapes&gt;
+ *   &lt;values&gt;&lt;sr&gt;16000&lt;/sr&gt;&lt;/values&gt;
  * &lt;/model&gt;
  * </pre>
  */
@@ -20,6 +22,12 @@ public class ModelConfig {
 
     /** Values for the model's symbolic dimensions ({@code dim_param}), e.g. {@code <batch>1</batch>}. */
     private Map<String, String> dimensions = new LinkedHashMap<>();
+
+    /** Whole shapes of graph inputs, dims joined by {@code x}, e.g. {@code <input>1x576</input>}. */
+    private Map<String, String> shapes = new LinkedHashMap<>();
+
+    /** Constant values of small graph inputs, e.g. {@code <sr>16000</sr>} or {@code <ids>1,2,3</ids>}. */
+    private Map<String, String> values = new LinkedHashMap<>();
 
     public ModelConfig() {
     }
@@ -43,5 +51,21 @@ public class ModelConfig {
 
     public void setDimensions(Map<String, String> dimensions) {
         this.dimensions = dimensions;
+    }
+
+    public Map<String, String> getShapes() {
+        return shapes;
+    }
+
+    public void setShapes(Map<String, String> shapes) {
+        this.shapes = shapes;
+    }
+
+    public Map<String, String> getValues() {
+        return values;
+    }
+
+    public void setValues(Map<String, String> values) {
+        this.values = values;
     }
 }
