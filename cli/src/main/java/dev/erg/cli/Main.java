@@ -70,6 +70,11 @@ public final class Main implements Callable<Integer> {
             err.println("erg: " + oneLine(e.getMessage()));
             return BAD_INPUT;
         }
+        if (e instanceof OutOfMemoryError) {
+            err.println("erg: the Java heap was too small for this model (out of memory); raise it, e.g."
+                    + " java -Xmx4g -jar erg.jar ..., or JAVA_TOOL_OPTIONS=-Xmx4g for the erg script");
+            return INTERNAL_ERROR;
+        }
         err.println("erg: internal error: " + e.getClass().getSimpleName()
                 + (e.getMessage() == null ? "" : ": " + oneLine(e.getMessage())));
         return INTERNAL_ERROR;

@@ -55,12 +55,30 @@ public final class Analyzer {
         return options.failOnUnmodelled() ? w.requireComplete() : w;
     }
 
+    /** The warnings of nodes (a dropped If branch), in topological order, nested subgraphs included. */
+    private static void nodeWarnings(Graph g, java.util.List<String> out) {
+        for (dev.erg.graph.Node n : g.nodes()) {
+            if (n.warning() != null) {
+                out.add(g.fileLabel() + ": node " + n.label() + ": " + n.warning());
+            }
+            for (Graph sub : n.subgraphs()) {
+                nodeWarnings(sub, out);
+            }
+        }
+    }
+
     /**
-     * Notes for bindings that match no symbolic dim of the model's inputs (a typo goes unnoticed
-     * otherwise): one sentence per unused name, sorted; empty when every binding was used.
+     * Notes on the analysis for the user: the reader's warnings (an opset newer than erg knows), the
+     * nodes' warnings (an If branch dropped because it cannot be shaped), then
+     * bindings that match no symbolic dim of the model's inputs (a typo goes unnoticed otherwise), one
+     * sentence per unused name, sorted; empty when there is nothing to say.
      */
     public static java.util.List<String> unusedDimNotes(ModelWorkload w, Map<String, Long> dims) {
         java.util.List<String> notes = new java.util.ArrayList<>();
+        if (w.graph().model() != null) {
+            notes.addAll(w.graph().model().warnings()); // e.g. an opset newer than erg knows
+        }
+        nodeWarnings(w.graph(), notes);
         for (String name : new java.util.TreeSet<>(dims.keySet())) {
             if (!w.graph().boundDims().containsKey(name)) {
                 notes.add(w.graph().fileLabel() + ": the dimension '" + name

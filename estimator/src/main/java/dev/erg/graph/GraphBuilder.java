@@ -26,6 +26,7 @@ public final class GraphBuilder {
     private final Map<String, Long> dimBindings;
     private final InputBindings bindings;
     private final Map<String, Long> used = new TreeMap<>();
+    private OnnxModel model;
 
     private GraphBuilder(String file, Map<String, Long> opsets, InputBindings bindings) {
         this.file = file;
@@ -58,11 +59,21 @@ public final class GraphBuilder {
         return b.build(model, sub, outerScope);
     }
 
+    /** The opset the rules use for a domain: the imported one, capped at the newest erg knows. */
+    private long opsetOf(String domain) {
+        if (model != null) {
+            return model.assumedOpset(domain);
+        }
+        Long opset = opsets.get(domain);
+        return opset == null ? 0 : opset;
+    }
+
     private BadInputException bad(String what) {
         return new BadInputException(file + ": " + what);
     }
 
     private Graph build(OnnxModel model, GraphDef g, Map<String, Value> outer) {
+        this.model = model;
         boolean isMain = outer.isEmpty() && g == model.graph();
         if (isMain) {
             checkBindingsNamed(g);
@@ -132,6 +143,13 @@ public final class GraphBuilder {
         }
         for (Value v : outputs) {
             v.markGraphOutput();
+        }
+        for (Value v : inputs) {
+            if (v.type() == dev.erg.onnx.ElemType.UNDEFINED) {
+                throw bad("graph input '" + v.name() + "'" + (v.consumers().isEmpty() ? ""
+                        : " (read by node " + v.consumers().get(0).label() + ")")
+                        + " declares the undefined element type (code 0); every tensor needs a defined type");
+            }
         }
         InputBindings inEffect = isMain ? new InputBindings(used, bindings.shapes(), bindings.values()) : InputBindings.NONE;
         return new Graph(model, order, values, inputs, outputs, inits, inEffect, outer);
@@ -236,9 +254,10 @@ public final class GraphBuilder {
 
         Node node(NodeDef d, int i) {
             nd = 0;
-            List<Value> ins = new ArrayList<>(d.inputs().size());
-            for (String name : d.inputs()) {
-                ins.add(name.isEmpty() ? null : read(name, i, d, false));
+            Value[] ins = new Value[d.inputs().size()];
+            for (int k = 0; k < ins.length; k++) {
+                String name = d.inputs().get(k);
+                ins[k] = name.isEmpty() ? null : read(name, i, d, false);
             }
             List<Value> implicit = List.of();
             if (hasSubgraph(d)) {
@@ -257,16 +276,26 @@ public final class GraphBuilder {
                 }
             }
             depsOf[i] = nd == 0 ? NO_DEPS : java.util.Arrays.copyOf(buf, nd);
-            List<Value> outs = new ArrayList<>(d.outputs().size());
-            for (String out : d.outputs()) {
-                outs.add(out.isEmpty() ? null : values.get(out));
+            Value[] outs = new Value[d.outputs().size()];
+            for (int k = 0; k < outs.length; k++) {
+                String out = d.outputs().get(k);
+                outs[k] = out.isEmpty() ? null : values.get(out);
             }
-            Long opset = opsets.get(d.domain());
-            return new Node(d, i, ins, outs, opset == null ? 0 : opset, implicit);
+            return new Node(d, i, compact(ins), compact(outs), opsetOf(d.domain()), implicit);
         }
     }
 
     private static final int[] NO_DEPS = new int[0];
+
+    /** A small fixed list: one or two values without an array behind them when none is omitted (null). */
+    private static List<Value> compact(Value[] a) {
+        for (Value v : a) {
+            if (v == null) {
+                return java.util.Collections.unmodifiableList(java.util.Arrays.asList(a));
+            }
+        }
+        return List.of(a);
+    }
 
     /** Kahn's algorithm, smallest file index first: file order wherever it is already valid. */
     private List<Node> kahn(List<Node> nodes, int[][] depsOf) {

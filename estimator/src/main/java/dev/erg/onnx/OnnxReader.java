@@ -28,6 +28,12 @@ import java.util.Map;
 public final class OnnxReader {
     /** Payloads up to this many bytes are kept: shape constants, axes, scales. Larger ones are skipped. */
     public static final int KEEP_PAYLOAD_BYTES = 4096;
+    /**
+     * The most nodes a model may hold, its subgraphs' nodes included. Analysis keeps about a kilobyte
+     * per node, so this bounds the heap a model can take (docs/limitations.md); a larger graph is
+     * refused as soon as the reader passes the limit.
+     */
+    public static final int MAX_NODES = 500_000;
     /** The largest model file: a protobuf message is at most 2^31 - 1 bytes (2 GiB less one byte). */
     public static final long MAX_MODEL_BYTES = Integer.MAX_VALUE;
     private static final int MAX_GRAPH_DEPTH = 64;
@@ -39,6 +45,7 @@ public final class OnnxReader {
     private final long fileSize;
     private CodedInputStream in;
     private int graphDepth;
+    private int nodeCount;
     private Where where = new Where(null, "model", -1);
 
     private static final float[] NO_FLOATS = new float[0];
@@ -267,7 +274,7 @@ public final class OnnxReader {
         if (opsets.isEmpty()) {
             opsets.put("", 1L);
         }
-        return new OnnxModel(file, ir, producer, producerVersion, opsets, graph);
+        return new OnnxModel(file, ir, producer, producerVersion, opsets, graph, warnings);
     }
 
     private void readOpset(Map<String, Long> opsets) throws IOException {
@@ -288,8 +295,25 @@ public final class OnnxReader {
         if (domain.equals("ai.onnx")) {
             domain = "";
         }
+        String shown = domain.isEmpty() ? "the default domain (ai.onnx)" : "domain '" + domain + "'";
+        if (opsets.containsKey(domain)) {
+            throw bad("the model imports " + shown + " twice (opsets " + opsets.get(domain) + " and " + version
+                    + "); each domain is imported once");
+        }
+        boolean standard = domain.isEmpty() || domain.equals("ai.onnx.ml");
+        if (version < 1 && standard || version < 0) {
+            throw bad("the model imports " + shown + " at opset " + version + "; opset versions start at 1");
+        }
+        long newest = domain.isEmpty() ? OnnxModel.NEWEST_DEFAULT_OPSET
+                : domain.equals("ai.onnx.ml") ? OnnxModel.NEWEST_ML_OPSET : Long.MAX_VALUE;
+        if (version > newest) {
+            warnings.add(label + ": the model imports " + shown + " at opset " + version + ", newer than the newest erg"
+                    + " knows (" + newest + "); erg reads its operators by the opset " + newest + " definitions");
+        }
         opsets.put(domain, version);
     }
+
+    private final List<String> warnings = new ArrayList<>();
 
     private GraphDef readGraph() throws IOException {
         if (++graphDepth > MAX_GRAPH_DEPTH) {
@@ -308,6 +332,10 @@ public final class OnnxReader {
             switch (field(tag)) {
                 case 1:
                     expect(tag, WireFormat.WIRETYPE_LENGTH_DELIMITED, "node");
+                    if (++nodeCount > MAX_NODES) {
+                        throw bad("the model has more than " + MAX_NODES + " nodes, erg's limit on the node count"
+                                + " (its subgraphs' nodes included)");
+                    }
                     old = enter("node");
                     where = new Where(outer, " node #", nodes.size());
                     nodes.add(readNode());
@@ -359,10 +387,10 @@ public final class OnnxReader {
             int tag = in.readTag();
             switch (field(tag)) {
                 case 1:
-                    inputs.add(string(tag, "node input"));
+                    inputs.add(intern(string(tag, "node input")));
                     break;
                 case 2:
-                    outputs.add(string(tag, "node output"));
+                    outputs.add(intern(string(tag, "node output")));
                     break;
                 case 3:
                     name = string(tag, "node name");

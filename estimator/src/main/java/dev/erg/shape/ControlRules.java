@@ -140,7 +140,7 @@ final class ControlRules {
         if (thenA.graph() == null || elseA.graph() == null) {
             Attempt ok = thenA.graph() != null ? thenA : elseA;
             Attempt dropped = ok == thenA ? elseA : thenA;
-            c.note("If condition is not known at analysis time; its " + dropped.name() + " branch cannot be shaped ("
+            c.warn("If condition is not known at analysis time; its " + dropped.name() + " branch cannot be shaped ("
                     + dropped.reason() + ") and is dropped; erg prices the " + ok.name() + " branch" + hint);
             return ok.graph();
         }

@@ -67,8 +67,10 @@ public final class ShapeInference {
         } catch (ArithmeticException e) {
             throw c.fail("has shapes whose arithmetic overflows 64 bits");
         } catch (RuntimeException e) {
-            throw c.fail("cannot be shaped (" + e.getClass().getSimpleName()
-                    + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
+            // A rule that indexes past an input's rank or an attribute's length: the node does not fit
+            // the operator definition. The sentence is about the node, never about erg's code.
+            throw c.fail("cannot be shaped: its inputs (" + ranks(n) + ") or attributes do not fit the operator"
+                    + " definition of " + n.opType() + " at opset " + n.opset());
         }
         if (c.unmodelledReason() != null) {
             n.setStatus(Node.Status.UNMODELLED);
@@ -83,6 +85,15 @@ public final class ShapeInference {
         }
         n.setStatus(Node.Status.SHAPED);
         markConstant(n);
+    }
+
+    /** "ranks 4, 1" of the node's present inputs, for messages. */
+    static String ranks(Node n) {
+        StringBuilder b = new StringBuilder();
+        for (Value v : n.inputs()) {
+            b.append(b.length() == 0 ? "" : ", ").append(v == null ? "-" : v.hasShape() ? String.valueOf(v.rank()) : "?");
+        }
+        return b.length() == 0 ? "none" : (n.inputs().size() == 1 ? "rank " : "ranks ") + b;
     }
 
     private static void markConstant(Node n) {
