@@ -14,7 +14,6 @@ import java.util.List;
 import java.util.Map;
 import java.util.PriorityQueue;
 import java.util.Set;
-import java.util.TreeMap;
 
 /**
  * Links a read graph into values and nodes, checks that every input has a source, orders the nodes
@@ -23,16 +22,15 @@ import java.util.TreeMap;
 public final class GraphBuilder {
     private final String file;
     private final Map<String, Long> opsets;
-    private final Map<String, Long> dimBindings;
     private final InputBindings bindings;
-    private final Map<String, Long> used = new TreeMap<>();
+    private final InputShapes shapes;
     private OnnxModel model;
 
     private GraphBuilder(String file, Map<String, Long> opsets, InputBindings bindings) {
         this.file = file;
         this.opsets = opsets;
         this.bindings = bindings;
-        this.dimBindings = bindings.dims();
+        this.shapes = new InputShapes(file, bindings);
     }
 
     /** Builds the main graph of {@code model}; {@code dims} binds symbolic dim names to values. */
@@ -76,7 +74,7 @@ public final class GraphBuilder {
         this.model = model;
         boolean isMain = outer.isEmpty() && g == model.graph();
         if (isMain) {
-            checkBindingsNamed(g);
+            shapes.checkNamed(g);
         }
         Map<String, Value> values = new LinkedHashMap<>(
                 (int) ((g.initializers().size() + g.inputs().size() + 2L * g.nodes().size()) / 0.75f) + 16);
@@ -95,7 +93,7 @@ public final class GraphBuilder {
                 if (in.type() == null) {
                     throw bad("graph input '" + in.name() + "' declares no tensor element type");
                 }
-                InputValues.bind(file, in, v, inputDims(in), bindings);
+                InputValues.bind(file, in, v, shapes.dims(in), bindings);
             }
             values.put(in.name(), v);
             inputs.add(v);
@@ -151,7 +149,7 @@ public final class GraphBuilder {
                         + " declares the undefined element type (code 0); every tensor needs a defined type");
             }
         }
-        InputBindings inEffect = isMain ? new InputBindings(used, bindings.shapes(), bindings.values()) : InputBindings.NONE;
+        InputBindings inEffect = isMain ? new InputBindings(shapes.used(), bindings.shapes(), bindings.values()) : InputBindings.NONE;
         return new Graph(model, order, values, inputs, outputs, inits, inEffect, outer);
     }
 
@@ -421,130 +419,5 @@ public final class GraphBuilder {
     private static String label(NodeDef d, int i) {
         String name = !d.name().isEmpty() ? d.name() : d.outputs().isEmpty() ? d.opType() + "#" + i : d.outputs().get(0);
         return "'" + name + "' (" + d.opType() + ")";
-    }
-
-    /** A shape or value bound to a name that is no runtime input is an error: a typo would go unnoticed. */
-    private void checkBindingsNamed(GraphDef g) {
-        java.util.Set<String> names = new java.util.TreeSet<>();
-        java.util.Set<String> inits = new HashSet<>();
-        for (TensorDef t : g.initializers()) {
-            inits.add(t.name());
-        }
-        for (ValueDef in : g.inputs()) {
-            if (!inits.contains(in.name())) {
-                names.add(in.name());
-            }
-        }
-        java.util.Set<String> bound = new java.util.TreeSet<>(bindings.shapes().keySet());
-        bound.addAll(bindings.values().keySet());
-        for (String name : bound) {
-            if (!names.contains(name)) {
-                throw bad("a shape or value is bound to '" + name + "', which is not a runtime graph input (the inputs are "
-                        + (names.isEmpty() ? "none" : String.join(", ", names)) + ")");
-            }
-        }
-    }
-
-    private long[] inputDims(ValueDef in) {
-        java.util.List<Long> given = bindings.shapes().get(in.name());
-        if (given != null) {
-            return givenShape(in, given);
-        }
-        if (in.dims() == null) {
-            if (bindings.values().containsKey(in.name())) {
-                return null; // the value's own shape
-            }
-            throw bad("graph input '" + in.name() + "' declares no shape; bind it (CLI: --shape " + in.name()
-                    + "=1x...; Maven: <shapes><" + in.name() + ">1x...</" + in.name() + "></shapes>)");
-        }
-        long[] dims = new long[in.dims().size()];
-        for (int k = 0; k < dims.length; k++) {
-            ValueDef.Dim d = in.dims().get(k);
-            if (d.isFixed()) {
-                dims[k] = d.value();
-            } else if (d.param() != null) {
-                Long bound = dimBindings.get(d.param());
-                if (bound == null) {
-                    throw bad("graph input '" + in.name() + "' has the symbolic dim '" + d.param()
-                            + "' (axis " + k + ") with no value; bind it (CLI: --dim " + d.param() + "=N; Maven: <dimensions><"
-                            + d.param() + ">N</" + d.param() + "></dimensions>)");
-                }
-                if (bound < 1) {
-                    throw bad("symbolic dim '" + d.param() + "' is bound to " + bound + "; a dim must be at least 1");
-                }
-                dims[k] = bound;
-                used.put(d.param(), bound);
-            } else if (bindings.values().containsKey(in.name())) {
-                dims[k] = -1; // the bound value gives it
-            } else {
-                throw bad("graph input '" + in.name() + "' has axis " + k + " of " + declared(in)
-                        + " with neither a value nor a name; bind the whole shape (CLI: --shape " + in.name()
-                        + "=...; Maven: <shapes><" + in.name() + ">...</" + in.name() + "></shapes>), e.g. "
-                        + example(in));
-            }
-        }
-        checkProduct(in.name(), dims);
-        return dims;
-    }
-
-    /** A whole shape given by the user: its rank and fixed dims must agree with the declaration. */
-    private long[] givenShape(ValueDef in, java.util.List<Long> given) {
-        long[] dims = new long[given.size()];
-        for (int k = 0; k < dims.length; k++) {
-            dims[k] = given.get(k);
-        }
-        if (in.dims() != null) {
-            if (in.dims().size() != dims.length) {
-                throw bad("graph input '" + in.name() + "' is declared " + declared(in) + " (rank " + in.dims().size()
-                        + ") but is bound to the shape " + InputBindings.shapeText(given) + " (rank " + dims.length + ")");
-            }
-            for (int k = 0; k < dims.length; k++) {
-                ValueDef.Dim d = in.dims().get(k);
-                if (d.isFixed() && d.value() != dims[k]) {
-                    throw bad("graph input '" + in.name() + "' is declared " + declared(in) + " but is bound to the shape "
-                            + InputBindings.shapeText(given) + ": axis " + k + " is fixed at " + d.value());
-                }
-                if (!d.isFixed() && d.param() != null) {
-                    Long other = dimBindings.get(d.param());
-                    if (other != null && other != dims[k]) {
-                        throw bad("graph input '" + in.name() + "' is bound to the shape " + InputBindings.shapeText(given)
-                                + ", but its axis " + k + " is the dim '" + d.param() + "', bound to " + other);
-                    }
-                }
-            }
-        }
-        checkProduct(in.name(), dims);
-        return dims;
-    }
-
-    private void checkProduct(String name, long[] dims) {
-        long n = 1;
-        for (long d : dims) {
-            try {
-                n = Math.multiplyExact(n, Math.max(d, 0));
-            } catch (ArithmeticException e) {
-                throw bad("graph input '" + name + "' has dims whose product overflows 64 bits");
-            }
-        }
-    }
-
-    /** The declared shape as text: {@code [?, ?]}, {@code [2, ?, 128]}, {@code [batch, 3]}. */
-    static String declared(ValueDef in) {
-        StringBuilder b = new StringBuilder("[");
-        for (int k = 0; k < in.dims().size(); k++) {
-            ValueDef.Dim d = in.dims().get(k);
-            b.append(k == 0 ? "" : ", ").append(d.isFixed() ? String.valueOf(d.value()) : d.param() != null ? d.param() : "?");
-        }
-        return b.append(']').toString();
-    }
-
-    /** An example shape for the message: the declared dims, an unknown one shown as N. */
-    private static String example(ValueDef in) {
-        StringBuilder b = new StringBuilder(in.name()).append('=');
-        for (int k = 0; k < in.dims().size(); k++) {
-            ValueDef.Dim d = in.dims().get(k);
-            b.append(k == 0 ? "" : "x").append(d.isFixed() ? String.valueOf(d.value()) : "N");
-        }
-        return b.toString();
     }
 }
