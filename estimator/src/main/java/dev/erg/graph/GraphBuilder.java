@@ -258,7 +258,7 @@ public final class GraphBuilder {
                 ins[k] = name.isEmpty() ? null : read(name, i, d, false);
             }
             List<Value> implicit = List.of();
-            if (hasSubgraph(d)) {
+            if (d.hasSubgraphs()) {
                 implicit = new ArrayList<>();
                 Set<String> free = new java.util.LinkedHashSet<>();
                 for (AttributeDef a : d.attributes().values()) {
@@ -338,15 +338,6 @@ public final class GraphBuilder {
             throw bad("graph has a cycle through node " + nodeOnCycle(nodes, indegree, depsOf));
         }
         return order;
-    }
-
-    private static boolean hasSubgraph(NodeDef d) {
-        for (AttributeDef a : d.attributes().values()) {
-            if (a.g() != null || !a.graphs().isEmpty()) {
-                return true;
-            }
-        }
-        return false;
     }
 
     /** Names a subgraph reads from its enclosing scopes. */

@@ -96,6 +96,42 @@ public final class ShapeInference {
         return b.length() == 0 ? "none" : (n.inputs().size() == 1 ? "rank " : "ranks ") + b;
     }
 
+    /**
+     * The stored tensors behind a folded node's inputs. When one input carries them all (a chain of
+     * Identity, Cast, Transpose or DequantizeLinear over a weight), its set is shared rather than
+     * copied, so that such chains cost nothing per node; a new set is made only where two sets meet.
+     */
+    private static Set<TensorDef> union(List<Value> ins, List<Value> implicit) {
+        Set<TensorDef> only = null;
+        boolean shared = true;
+        for (int pass = 0; pass < 2 && shared; pass++) {
+            for (Value v : pass == 0 ? ins : implicit) {
+                if (v == null || v.sources().isEmpty() || v.sources() == only) {
+                    continue;
+                }
+                if (only == null) {
+                    only = v.sources();
+                } else {
+                    shared = false;
+                    break;
+                }
+            }
+        }
+        if (shared) {
+            return only == null ? Set.of() : only;
+        }
+        Set<TensorDef> out = new LinkedHashSet<>();
+        for (Value v : ins) {
+            if (v != null) {
+                out.addAll(v.sources());
+            }
+        }
+        for (Value v : implicit) {
+            out.addAll(v.sources());
+        }
+        return java.util.Collections.unmodifiableSet(out);
+    }
+
     private static void markConstant(Node n) {
         if (NON_DETERMINISTIC.contains(n.opType())) {
             return;
@@ -125,15 +161,7 @@ public final class ShapeInference {
                     return;
                 }
             }
-            sources = new LinkedHashSet<>();
-            for (Value v : ins) {
-                if (v != null) {
-                    sources.addAll(v.sources());
-                }
-            }
-            for (Value v : n.implicitInputs()) {
-                sources.addAll(v.sources());
-            }
+            sources = union(ins, n.implicitInputs());
             if (present == 0 && n.implicitInputs().isEmpty() && !n.opType().equals("ConstantOfShape")
                     && !n.opType().equals("EyeLike")) {
                 constant = n.opType().equals("Range");
