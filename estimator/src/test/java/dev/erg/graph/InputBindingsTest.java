@@ -134,6 +134,25 @@ class InputBindingsTest {
     }
 
     @Test
+    void shapeBindsAnInputThatDeclaresNoShape() {
+        // MatMul [1, 576] x [576, 10]: 5,760 MACs (ONNX: MatMul; docs/counting.md m·k·n).
+        OnnxWriter.Graph g = new OnnxWriter.Graph("g")
+                .inputNoShape("x", ElemType.FLOAT)
+                .weight("w", ElemType.FLOAT, 576, 10)
+                .node("MatMul", "mm", List.of("x", "w"), List.of("y"))
+                .output("y", ElemType.FLOAT);
+        Path f = dir.resolve("noshape.onnx");
+        new OnnxWriter.Model(13, g).write(f);
+        BadInputException e = assertThrows(BadInputException.class, () -> Analyzer.analyze(f, Map.of()));
+        assertEquals(f + ": graph input 'x' declares no shape; bind it (CLI: --shape x=1x...; Maven:"
+                + " <shapes><x>1x...</x></shapes>)", e.getMessage());
+        ModelWorkload w = Analyzer.analyze(f, InputBindings.parse(Map.of(), Map.of("x", "1x576"), Map.of(), "test"),
+                AnalysisOptions.DEFAULTS);
+        assertEquals(5760, w.macs());
+        assertArrayEquals(new long[] {1, 10}, w.graph().value("y").dims());
+    }
+
+    @Test
     void malformedTextsNameTheEntry() {
         BadInputException e = assertThrows(BadInputException.class,
                 () -> InputBindings.parse(Map.of(), Map.of("input", "1by576"), Map.of(), "--shape"));
