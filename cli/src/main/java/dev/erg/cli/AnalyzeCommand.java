@@ -41,7 +41,7 @@ final class AnalyzeCommand implements Callable<Integer> {
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
-        ModelWorkload w = Analyzer.analyze(model, bound);
+        ModelWorkload w = Analyzer.analyze(model, modelOptions.bindings(spec), dev.erg.analysis.AnalysisOptions.DEFAULTS);
         PrintWriter out = spec.commandLine().getOut();
         out.print(AnalysisTable.render(w, top));
         if (json != null) {

@@ -129,7 +129,7 @@ final class CheckCommand implements Callable<Integer> {
 
     /** The options as the library's run request; a malformed option is a usage error. */
     RunRequest request() {
-        Map<String, Long> bound = modelOptions.bound(spec);
+        dev.erg.graph.InputBindings bindings = modelOptions.bindings(spec);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
@@ -154,7 +154,7 @@ final class CheckCommand implements Callable<Integer> {
                 .maxActivationKib(maxActivationKib).build();
         List<ModelSpec> specs = new ArrayList<>();
         for (Path m : models) {
-            specs.add(new ModelSpec(m.toString(), m, bound));
+            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings));
         }
         RunRequest.Builder b = RunRequest.builder().failOnUnmodelled(modelOptions.failOnUnmodelled)
                 .failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);

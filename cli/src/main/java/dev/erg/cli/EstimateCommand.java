@@ -55,7 +55,7 @@ final class EstimateCommand implements Callable<Integer> {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
         DeviceProfile profile = DeviceLoader.load(device, null);
-        ModelWorkload w = Analyzer.analyze(model, bound);
+        ModelWorkload w = Analyzer.analyze(model, modelOptions.bindings(spec), dev.erg.analysis.AnalysisOptions.DEFAULTS);
         DeviceEstimate e = Estimator.estimate(w, profile);
         PrintWriter out = spec.commandLine().getOut();
         out.print(ConsoleReport.estimate(e, fps, top));

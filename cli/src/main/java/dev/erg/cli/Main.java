@@ -68,12 +68,18 @@ public final class Main implements Callable<Integer> {
     /** Prints the one line for {@code e} and returns its exit code. */
     static int failure(Throwable e, PrintWriter err) {
         if (e instanceof UnboundDimException u) {
-            err.println("erg: " + oneLine(e.getMessage()) + "; bind it with --dim " + u.dim() + "=N");
+            err.println("erg: " + oneLine(e.getMessage()) + (u.dim() != null ? "; bind it with --dim " + u.dim() + "=N"
+                    : "; bind the whole shape with --shape " + u.input() + "=" + u.shapeExample()));
             return BAD_INPUT;
         }
         if (e instanceof BadInputException) {
             err.println("erg: " + oneLine(e.getMessage()));
             return BAD_INPUT;
+        }
+        if (e instanceof OutOfMemoryError) {
+            err.println("erg: the Java heap was too small for this model (out of memory); raise it, e.g."
+                    + " java -Xmx4g -jar erg.jar ..., or JAVA_TOOL_OPTIONS=-Xmx4g for the erg script");
+            return INTERNAL_ERROR;
         }
         err.println("erg: internal error: " + e.getClass().getSimpleName()
                 + (e.getMessage() == null ? "" : ": " + oneLine(e.getMessage())));

@@ -5,6 +5,7 @@ import com.fasterxml.jackson.core.JsonParser;
 import com.fasterxml.jackson.core.JsonProcessingException;
 import com.fasterxml.jackson.dataformat.yaml.YAMLFactory;
 import dev.erg.error.BadInputException;
+import dev.erg.error.InputFiles;
 import dev.erg.device.ProfileTree.Node;
 import java.io.BufferedReader;
 import java.io.IOException;
@@ -117,9 +118,7 @@ public final class DeviceLoader {
     }
 
     private static byte[] readCapped(String label, Path file) {
-        if (Files.isDirectory(file)) {
-            throw new BadInputException(label + ": is a directory, not a device profile file");
-        }
+        InputFiles.requireRegular(file, label, "device profile file");
         try (InputStream in = Files.newInputStream(file)) {
             byte[] data = in.readNBytes(MAX_FILE_BYTES + 1);
             if (data.length > MAX_FILE_BYTES) {

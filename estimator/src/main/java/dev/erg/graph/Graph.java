@@ -14,11 +14,11 @@ public final class Graph {
     private final List<Value> inputs;
     private final List<Value> outputs;
     private final List<TensorDef> initializers;
-    private final Map<String, Long> boundDims;
+    private final InputBindings bindings;
     private final Map<String, Value> outerScope;
 
     Graph(OnnxModel model, List<Node> nodes, Map<String, Value> values, List<Value> inputs, List<Value> outputs,
-          List<TensorDef> initializers, Map<String, Long> boundDims, Map<String, Value> outerScope) {
+          List<TensorDef> initializers, InputBindings bindings, Map<String, Value> outerScope) {
         this.outerScope = outerScope;
         this.model = model;
         this.nodes = Collections.unmodifiableList(nodes);
@@ -26,7 +26,7 @@ public final class Graph {
         this.inputs = Collections.unmodifiableList(inputs);
         this.outputs = Collections.unmodifiableList(outputs);
         this.initializers = List.copyOf(initializers);
-        this.boundDims = Map.copyOf(boundDims);
+        this.bindings = bindings;
     }
 
     public OnnxModel model() {
@@ -69,7 +69,15 @@ public final class Graph {
 
     /** The symbolic dims bound by the user that this graph uses. */
     public Map<String, Long> boundDims() {
-        return boundDims;
+        return bindings.dims();
+    }
+
+    /**
+     * The bindings in effect for this analysis: the symbolic dims that some input used, and every
+     * bound input shape and value. Empty for a subgraph.
+     */
+    public InputBindings bindings() {
+        return bindings;
     }
 
     /** A short name for messages: the model file's name. */

@@ -14,7 +14,6 @@ import java.util.List;
 import java.util.Map;
 import java.util.PriorityQueue;
 import java.util.Set;
-import java.util.TreeMap;
 
 /**
  * Links a read graph into values and nodes, checks that every input has a source, orders the nodes
@@ -23,18 +22,29 @@ import java.util.TreeMap;
 public final class GraphBuilder {
     private final String file;
     private final Map<String, Long> opsets;
-    private final Map<String, Long> dimBindings;
-    private final Map<String, Long> used = new TreeMap<>();
+    private final InputBindings bindings;
+    private final InputShapes shapes;
+    private OnnxModel model;
 
-    private GraphBuilder(String file, Map<String, Long> opsets, Map<String, Long> dimBindings) {
+    private GraphBuilder(String file, Map<String, Long> opsets, InputBindings bindings) {
         this.file = file;
         this.opsets = opsets;
-        this.dimBindings = dimBindings;
+        this.bindings = bindings;
+        this.shapes = new InputShapes(file, bindings);
     }
 
     /** Builds the main graph of {@code model}; {@code dims} binds symbolic dim names to values. */
     public static Graph build(OnnxModel model, Map<String, Long> dims) {
-        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), dims);
+        return build(model, InputBindings.ofDims(dims));
+    }
+
+    /**
+     * Builds the main graph of {@code model} with the user's {@code bindings}: symbolic dims, whole
+     * input shapes and constant input values. A shape or value for a name that is no graph input, or
+     * a value that does not fit its input's declared type and shape, is a {@link BadInputException}.
+     */
+    public static Graph build(OnnxModel model, InputBindings bindings) {
+        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), bindings);
         return b.build(model, model.graph(), Map.of());
     }
 
@@ -43,8 +53,17 @@ public final class GraphBuilder {
      * scope. Its formal inputs get no shape here: the caller sets them.
      */
     public static Graph buildSubgraph(OnnxModel model, GraphDef sub, Map<String, Value> outerScope) {
-        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), Map.of());
+        GraphBuilder b = new GraphBuilder(model.file().toString(), model.opsets(), InputBindings.NONE);
         return b.build(model, sub, outerScope);
+    }
+
+    /** The opset the rules use for a domain: the imported one, capped at the newest erg knows. */
+    private long opsetOf(String domain) {
+        if (model != null) {
+            return model.assumedOpset(domain);
+        }
+        Long opset = opsets.get(domain);
+        return opset == null ? 0 : opset;
     }
 
     private BadInputException bad(String what) {
@@ -52,7 +71,11 @@ public final class GraphBuilder {
     }
 
     private Graph build(OnnxModel model, GraphDef g, Map<String, Value> outer) {
+        this.model = model;
         boolean isMain = outer.isEmpty() && g == model.graph();
+        if (isMain) {
+            shapes.checkNamed(g);
+        }
         Map<String, Value> values = new LinkedHashMap<>(
                 (int) ((g.initializers().size() + g.inputs().size() + 2L * g.nodes().size()) / 0.75f) + 16);
         List<TensorDef> inits = g.initializers();
@@ -67,10 +90,10 @@ public final class GraphBuilder {
             Value v = new Value(in.name());
             v.markGraphInput();
             if (isMain) {
-                v.setType(in.type(), inputDims(in));
                 if (in.type() == null) {
                     throw bad("graph input '" + in.name() + "' declares no tensor element type");
                 }
+                InputValues.bind(file, in, v, shapes.dims(in), bindings);
             }
             values.put(in.name(), v);
             inputs.add(v);
@@ -100,9 +123,8 @@ public final class GraphBuilder {
         } else {
             order = kahn(nodes, depsOf);
         }
-        for (int i = 0; i < order.size(); i++) {
-            connect(order.get(i));
-        }
+        // Outputs are checked before anything is linked into the enclosing scopes' values, so that a
+        // subgraph that fails to build leaves them as they were.
         List<Value> outputs = new ArrayList<>();
         for (ValueDef o : g.outputs()) {
             Value v = values.get(o.name());
@@ -112,10 +134,23 @@ public final class GraphBuilder {
             if (v == null) {
                 throw bad("graph output '" + o.name() + "' is produced by no node, input or initializer");
             }
-            v.markGraphOutput();
             outputs.add(v);
         }
-        return new Graph(model, order, values, inputs, outputs, inits, used, outer);
+        for (int i = 0; i < order.size(); i++) {
+            connect(order.get(i));
+        }
+        for (Value v : outputs) {
+            v.markGraphOutput();
+        }
+        for (Value v : inputs) {
+            if (v.type() == dev.erg.onnx.ElemType.UNDEFINED) {
+                throw bad("graph input '" + v.name() + "'" + (v.consumers().isEmpty() ? ""
+                        : " (read by node " + v.consumers().get(0).label() + ")")
+                        + " declares the undefined element type (code 0); every tensor needs a defined type");
+            }
+        }
+        InputBindings inEffect = isMain ? new InputBindings(shapes.used(), bindings.shapes(), bindings.values()) : InputBindings.NONE;
+        return new Graph(model, order, values, inputs, outputs, inits, inEffect, outer);
     }
 
     // The loops over every node call small methods, so that the JIT compiles those rather than the
@@ -217,12 +252,13 @@ public final class GraphBuilder {
 
         Node node(NodeDef d, int i) {
             nd = 0;
-            List<Value> ins = new ArrayList<>(d.inputs().size());
-            for (String name : d.inputs()) {
-                ins.add(name.isEmpty() ? null : read(name, i, d, false));
+            Value[] ins = new Value[d.inputs().size()];
+            for (int k = 0; k < ins.length; k++) {
+                String name = d.inputs().get(k);
+                ins[k] = name.isEmpty() ? null : read(name, i, d, false);
             }
             List<Value> implicit = List.of();
-            if (hasSubgraph(d)) {
+            if (d.hasSubgraphs()) {
                 implicit = new ArrayList<>();
                 Set<String> free = new java.util.LinkedHashSet<>();
                 for (AttributeDef a : d.attributes().values()) {
@@ -238,16 +274,26 @@ public final class GraphBuilder {
                 }
             }
             depsOf[i] = nd == 0 ? NO_DEPS : java.util.Arrays.copyOf(buf, nd);
-            List<Value> outs = new ArrayList<>(d.outputs().size());
-            for (String out : d.outputs()) {
-                outs.add(out.isEmpty() ? null : values.get(out));
+            Value[] outs = new Value[d.outputs().size()];
+            for (int k = 0; k < outs.length; k++) {
+                String out = d.outputs().get(k);
+                outs[k] = out.isEmpty() ? null : values.get(out);
             }
-            Long opset = opsets.get(d.domain());
-            return new Node(d, i, ins, outs, opset == null ? 0 : opset, implicit);
+            return new Node(d, i, compact(ins), compact(outs), opsetOf(d.domain()), implicit);
         }
     }
 
     private static final int[] NO_DEPS = new int[0];
+
+    /** A small fixed list: one or two values without an array behind them when none is omitted (null). */
+    private static List<Value> compact(Value[] a) {
+        for (Value v : a) {
+            if (v == null) {
+                return java.util.Collections.unmodifiableList(java.util.Arrays.asList(a));
+            }
+        }
+        return List.of(a);
+    }
 
     /** Kahn's algorithm, smallest file index first: file order wherever it is already valid. */
     private List<Node> kahn(List<Node> nodes, int[][] depsOf) {
@@ -292,15 +338,6 @@ public final class GraphBuilder {
             throw bad("graph has a cycle through node " + nodeOnCycle(nodes, indegree, depsOf));
         }
         return order;
-    }
-
-    private static boolean hasSubgraph(NodeDef d) {
-        for (AttributeDef a : d.attributes().values()) {
-            if (a.g() != null || !a.graphs().isEmpty()) {
-                return true;
-            }
-        }
-        return false;
     }
 
     /** Names a subgraph reads from its enclosing scopes. */
@@ -373,40 +410,5 @@ public final class GraphBuilder {
     private static String label(NodeDef d, int i) {
         String name = !d.name().isEmpty() ? d.name() : d.outputs().isEmpty() ? d.opType() + "#" + i : d.outputs().get(0);
         return "'" + name + "' (" + d.opType() + ")";
-    }
-
-    private long[] inputDims(ValueDef in) {
-        if (in.dims() == null) {
-            throw bad("graph input '" + in.name() + "' declares no shape; erg needs the input shape");
-        }
-        long[] dims = new long[in.dims().size()];
-        for (int k = 0; k < dims.length; k++) {
-            ValueDef.Dim d = in.dims().get(k);
-            if (d.isFixed()) {
-                dims[k] = d.value();
-            } else if (d.param() != null) {
-                Long bound = dimBindings.get(d.param());
-                if (bound == null) {
-                    throw new UnboundDimException(file + ": graph input '" + in.name() + "' has the symbolic dim '"
-                            + d.param() + "' (axis " + k + ") with no value", d.param());
-                }
-                if (bound < 1) {
-                    throw bad("symbolic dim '" + d.param() + "' is bound to " + bound + "; a dim must be at least 1");
-                }
-                dims[k] = bound;
-                used.put(d.param(), bound);
-            } else {
-                throw bad("graph input '" + in.name() + "' has axis " + k + " with neither a value nor a name");
-            }
-        }
-        long n = 1;
-        for (long d : dims) {
-            try {
-                n = Math.multiplyExact(n, d);
-            } catch (ArithmeticException e) {
-                throw bad("graph input '" + in.name() + "' has dims whose product overflows 64 bits");
-            }
-        }
-        return dims;
     }
 }

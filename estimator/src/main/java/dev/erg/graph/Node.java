@@ -16,6 +16,7 @@ public final class Node {
     private boolean folded;
     private Status status = Status.PENDING;
     private String note;
+    private String warning;
     private List<Graph> subgraphs = List.of();
     private long repeat = 1;
 
@@ -135,6 +136,18 @@ public final class Node {
 
     public void setNote(String note) {
         this.note = note;
+    }
+
+    /**
+     * A note that every front end shows beside the totals, not only in the per-node detail: an
+     * assumption that can change the result a lot (a dropped If branch), or null.
+     */
+    public String warning() {
+        return warning;
+    }
+
+    public void setWarning(String warning) {
+        this.warning = warning;
     }
 
     /** Analysed subgraphs whose nodes run as part of this node (a taken If branch, a Loop body). */

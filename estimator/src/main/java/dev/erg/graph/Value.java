@@ -5,7 +5,6 @@ import dev.erg.onnx.TensorDef;
 import dev.erg.onnx.TensorValues;
 import java.util.ArrayList;
 import java.util.Collections;
-import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Set;
 
@@ -118,8 +117,12 @@ public final class Value {
         return sources;
     }
 
+    /**
+     * Sets the stored tensors behind this constant value. The set is kept as given, not copied: it must
+     * not change afterwards (values of a folded chain share one set).
+     */
     public void setSources(Set<TensorDef> sources) {
-        this.sources = sources.isEmpty() ? Collections.emptySet() : Collections.unmodifiableSet(new LinkedHashSet<>(sources));
+        this.sources = sources.isEmpty() ? Collections.emptySet() : sources;
     }
 
     /** Bytes of the stored tensors behind this constant value (or its own bytes when none). */

@@ -14,6 +14,7 @@ public final class NodeDef {
     private final List<String> inputs;
     private final List<String> outputs;
     private final Map<String, AttributeDef> attributes;
+    private final boolean hasSubgraphs;
 
     public NodeDef(String name, String opType, String domain, List<String> inputs, List<String> outputs,
                    Map<String, AttributeDef> attributes) {
@@ -23,6 +24,16 @@ public final class NodeDef {
         this.inputs = List.copyOf(inputs);
         this.outputs = List.copyOf(outputs);
         this.attributes = Map.copyOf(attributes);
+        boolean sub = false;
+        for (AttributeDef a : this.attributes.values()) {
+            sub |= a.g() != null || !a.graphs().isEmpty();
+        }
+        this.hasSubgraphs = sub;
+    }
+
+    /** True when some attribute holds a graph (If, Loop, Scan): worked out once, when the node is read. */
+    public boolean hasSubgraphs() {
+        return hasSubgraphs;
     }
 
     public String name() {

@@ -6,7 +6,16 @@ import java.util.Map;
 
 /** What the reader takes from a ModelProto: the header and the main graph. */
 public final class OnnxModel {
+    /**
+     * The newest opset of the default domain whose operator definitions erg follows (ONNX 1.18, from
+     * memory). A model that imports a newer one is read as this version, with a warning.
+     */
+    public static final long NEWEST_DEFAULT_OPSET = 23;
+    /** The newest opset of the {@code ai.onnx.ml} domain (ONNX 1.18, from memory). */
+    public static final long NEWEST_ML_OPSET = 5;
+
     private final Path file;
+    private final java.util.List<String> warnings;
     private final long irVersion;
     private final String producerName;
     private final String producerVersion;
@@ -15,6 +24,13 @@ public final class OnnxModel {
 
     public OnnxModel(Path file, long irVersion, String producerName, String producerVersion,
                      Map<String, Long> opsets, GraphDef graph) {
+        this(file, irVersion, producerName, producerVersion, opsets, graph, java.util.List.of());
+    }
+
+    /** As above, with the reader's warnings (one sentence each, naming the file). */
+    public OnnxModel(Path file, long irVersion, String producerName, String producerVersion,
+                     Map<String, Long> opsets, GraphDef graph, java.util.List<String> warnings) {
+        this.warnings = java.util.List.copyOf(warnings);
         this.file = file;
         this.irVersion = irVersion;
         this.producerName = producerName;
@@ -51,6 +67,23 @@ public final class OnnxModel {
             v = opsets.get("ai.onnx");
         }
         return v == null ? 0 : v;
+    }
+
+    /** What the reader accepted with a caveat, e.g. an opset newer than erg knows; sentences naming the file. */
+    public java.util.List<String> warnings() {
+        return warnings;
+    }
+
+    /**
+     * The opset version the rules use for {@code domain}: the imported one, capped at the newest that
+     * erg knows for the default domain; 0 when the domain is not imported.
+     */
+    public long assumedOpset(String domain) {
+        Long v = opsets.get(domain);
+        if (v == null) {
+            return 0;
+        }
+        return domain.isEmpty() ? Math.min(v, NEWEST_DEFAULT_OPSET) : v;
     }
 
     public GraphDef graph() {

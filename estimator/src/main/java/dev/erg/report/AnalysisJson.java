@@ -115,7 +115,31 @@ public final class AnalysisJson {
         g.writeStringField("graph", m.graphName());
         longMap(g, "opsets", Format.opsets(m));
         longMap(g, "dims", Format.dims(w));
+        bindings(g, w);
         g.writeEndObject();
+    }
+
+    /** Bound input shapes and values, each object written only when something is bound. */
+    private static void bindings(JsonGenerator g, ModelWorkload w) throws IOException {
+        dev.erg.graph.InputBindings b = w.graph() == null ? dev.erg.graph.InputBindings.NONE : w.graph().bindings();
+        if (!b.shapes().isEmpty()) {
+            g.writeObjectFieldStart("shapes");
+            for (Map.Entry<String, java.util.List<Long>> e : b.shapes().entrySet()) {
+                g.writeArrayFieldStart(e.getKey());
+                for (long d : e.getValue()) {
+                    g.writeNumber(d);
+                }
+                g.writeEndArray();
+            }
+            g.writeEndObject();
+        }
+        if (!b.values().isEmpty()) {
+            g.writeObjectFieldStart("values");
+            for (Map.Entry<String, java.util.List<String>> e : b.values().entrySet()) {
+                g.writeStringField(e.getKey(), String.join(",", e.getValue()));
+            }
+            g.writeEndObject();
+        }
     }
 
     private static void totals(JsonGenerator g, ModelWorkload w, Extension ext) throws IOException {

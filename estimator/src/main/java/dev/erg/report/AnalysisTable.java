@@ -60,6 +60,11 @@ public final class AnalysisTable {
             }
             out.append("dims: ").append(d).append('\n');
         }
+        dev.erg.graph.InputBindings b = w.graph() == null ? dev.erg.graph.InputBindings.NONE : w.graph().bindings();
+        if (!b.shapes().isEmpty() || !b.values().isEmpty()) {
+            out.append("inputs bound: ").append(new dev.erg.graph.InputBindings(Map.of(), b.shapes(), b.values()).describe())
+                    .append('\n');
+        }
     }
 
     /** The nodes ranked by MACs, most first; the sort is stable, so ties keep their topological order. */

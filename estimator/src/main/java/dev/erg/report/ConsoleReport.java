@@ -92,6 +92,10 @@ public final class ConsoleReport {
         DeviceEstimate e = f.estimate;
         b.append(f.model).append(" on ").append(f.device).append(" (").append(f.profile().name()).append(", ")
                 .append(Format.sig(f.profile().clockMhz())).append(" MHz)\n");
+        String bound = Format.bindings(e.workload());
+        if (!bound.isEmpty()) {
+            b.append("inputs bound: ").append(bound).append('\n');
+        }
         List<NodeEstimate> ranked = f.byEnergy();
         List<NodeEstimate> shown = ranked.subList(0, Math.min(top, ranked.size()));
         if (f.layers.isEmpty()) {

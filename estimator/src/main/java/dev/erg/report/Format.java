@@ -72,6 +72,14 @@ final class Format {
         return out;
     }
 
+    /**
+     * The input bindings in effect, one line ({@code dims batch=1; shapes input=1x576; values sr=16000}),
+     * or empty when nothing is bound.
+     */
+    static String bindings(ModelWorkload w) {
+        return w == null || w.graph() == null ? "" : w.graph().bindings().describe();
+    }
+
     /** The symbolic dims bound for this analysis, sorted by name. */
     static Map<String, Long> dims(ModelWorkload w) {
         return w.info().boundDims();

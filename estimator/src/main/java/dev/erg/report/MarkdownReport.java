@@ -98,7 +98,12 @@ public final class MarkdownReport {
             b.append(failed).append(" of ").append(ConsoleReport.plural(p.checks().size(), "check")).append(" failed.");
         }
         b.append(" Model ").append(code(f.model)).append(", device ").append(text(f.profile().name())).append(", ")
-                .append(Format.sig(f.profile().clockMhz())).append(" MHz.\n\n");
+                .append(Format.sig(f.profile().clockMhz())).append(" MHz.");
+        String bound = Format.bindings(p.workload());
+        if (!bound.isEmpty()) {
+            b.append(" Inputs bound: ").append(text(bound)).append('.');
+        }
+        b.append("\n\n");
         if (!p.checks().isEmpty()) {
             b.append("| | check | value | limit | message |\n|---|---|---:|---:|---|\n");
             for (Check c : p.checks()) {

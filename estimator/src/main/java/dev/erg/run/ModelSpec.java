@@ -2,6 +2,7 @@ package dev.erg.run;
 
 import dev.erg.budget.Budget;
 import dev.erg.error.BadInputException;
+import dev.erg.graph.InputBindings;
 import java.nio.file.Path;
 import java.util.Collections;
 import java.util.LinkedHashMap;
@@ -18,32 +19,37 @@ import java.util.Map;
 public final class ModelSpec {
     private final String label;
     private final Path file;
-    private final Map<String, Long> dims;
+    private final InputBindings bindings;
     private final Budget budget;
 
     public ModelSpec(String label, Path file) {
-        this(label, file, Map.of(), Budget.none());
+        this(label, file, InputBindings.NONE, Budget.none());
     }
 
     public ModelSpec(String label, Path file, Map<String, Long> dims) {
-        this(label, file, dims, Budget.none());
+        this(label, file, InputBindings.ofDims(dims), Budget.none());
     }
 
-    private ModelSpec(String label, Path file, Map<String, Long> dims, Budget budget) {
+    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget) {
         this.label = label;
         this.file = file;
-        this.dims = Collections.unmodifiableMap(new LinkedHashMap<>(dims));
+        this.bindings = bindings == null ? InputBindings.NONE : bindings;
         this.budget = budget == null ? Budget.none() : budget;
     }
 
-    /** This model with {@code dims} as the values of its symbolic dims. */
+    /** This model with {@code dims} as the values of its symbolic dims (its shapes and values kept). */
     public ModelSpec withDims(Map<String, Long> dims) {
-        return new ModelSpec(label, file, dims, budget);
+        return new ModelSpec(label, file, bindings.withDims(dims), budget);
+    }
+
+    /** This model with every kind of input binding: symbolic dims, whole shapes, constant values. */
+    public ModelSpec withBindings(InputBindings bindings) {
+        return new ModelSpec(label, file, bindings, budget);
     }
 
     /** This model with its own limits: they override the device's and the run's, limit by limit. */
     public ModelSpec withBudget(Budget budget) {
-        return new ModelSpec(label, file, dims, budget);
+        return new ModelSpec(label, file, bindings, budget);
     }
 
     public String label() {
@@ -56,7 +62,12 @@ public final class ModelSpec {
 
     /** The symbolic dim bindings, in the order given. */
     public Map<String, Long> dims() {
-        return dims;
+        return bindings.dims();
+    }
+
+    /** The input bindings: dims, whole shapes and constant values. */
+    public InputBindings bindings() {
+        return bindings;
     }
 
     /** The model's own limits (empty when it has none). */

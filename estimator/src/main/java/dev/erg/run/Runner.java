@@ -47,7 +47,7 @@ public final class Runner {
         List<String> notes = new ArrayList<>();
         for (ModelSpec m : req.models()) {
             progress.say("analysing " + m.label());
-            ModelWorkload w = Analyzer.analyze(m.file(), m.dims(), AnalysisOptions.DEFAULTS);
+            ModelWorkload w = Analyzer.analyze(m.file(), m.bindings(), AnalysisOptions.DEFAULTS);
             notes.addAll(Analyzer.unusedDimNotes(w, m.dims()));
             if (!w.complete() && !req.failOnUnmodelled()) {
                 notes.add(w.incompleteness() + ". Those nodes are not priced, so every total is a lower bound"

@@ -68,15 +68,12 @@ final class ControlRules {
         TensorValues cond = c.data(0);
         Graph taken;
         if (cond != null) {
+            if (cond.size() == 0) {
+                throw c.fail("has an empty condition; the operator definition takes one bool");
+            }
             taken = branch(c, cond.longAt(0) != 0 ? "then_branch" : "else_branch");
         } else {
-            Graph thenG = branch(c, "then_branch");
-            Graph elseG = branch(c, "else_branch");
-            long thenCost = thenG.nodes().size();
-            long elseCost = elseG.nodes().size();
-            taken = thenCost >= elseCost ? thenG : elseG;
-            c.note("If condition is not known at analysis time; erg prices the larger branch ("
-                    + (taken == thenG ? "then" : "else") + ")");
+            taken = eitherBranch(c);
         }
         c.node().setSubgraphs(List.of(taken), 1);
         List<Value> outs = taken.outputs();
@@ -98,6 +95,101 @@ final class ControlRules {
                 c.outData(i, v.data());
             }
         }
+    }
+
+    /** One branch shaped on its own: the graph, or why it cannot be shaped. */
+    private record Attempt(String name, Graph graph, String reason) {
+    }
+
+    /**
+     * Shapes one branch of an If whose condition is unknown. A branch that fails is dropped with its
+     * reason, and the consumers it had added to the enclosing scopes' values are taken back, so that
+     * nothing of it stays in the graph.
+     */
+    private static Attempt attempt(InferContext c, String attrName) {
+        List<Value> outer = c.node().implicitInputs();
+        int[] before = new int[outer.size()];
+        for (int i = 0; i < before.length; i++) {
+            before[i] = outer.get(i).consumers().size();
+        }
+        String name = attrName.substring(0, attrName.indexOf('_'));
+        try {
+            return new Attempt(name, branch(c, attrName), null);
+        } catch (dev.erg.error.BadInputException e) {
+            for (int i = 0; i < before.length; i++) {
+                List<dev.erg.graph.Node> cons = outer.get(i).consumers();
+                while (cons.size() > before[i]) {
+                    cons.remove(cons.size() - 1);
+                }
+            }
+            String msg = e.getMessage();
+            String prefix = c.graph().fileLabel() + ": ";
+            return new Attempt(name, null, msg.startsWith(prefix) ? msg.substring(prefix.length()) : msg);
+        }
+    }
+
+    /** The branch to price when the condition is not known: the one that shapes, or the larger of two. */
+    private static Graph eitherBranch(InferContext c) {
+        Attempt thenA = attempt(c, "then_branch");
+        Attempt elseA = attempt(c, "else_branch");
+        String hint = conditionHint(c);
+        if (thenA.graph() == null && elseA.graph() == null) {
+            throw c.fail("has a condition not known at analysis time, and neither branch can be shaped (then: "
+                    + thenA.reason() + "; else: " + elseA.reason() + ")" + hint);
+        }
+        if (thenA.graph() == null || elseA.graph() == null) {
+            Attempt ok = thenA.graph() != null ? thenA : elseA;
+            Attempt dropped = ok == thenA ? elseA : thenA;
+            c.warn("If condition is not known at analysis time; its " + dropped.name() + " branch cannot be shaped ("
+                    + dropped.reason() + ") and is dropped; erg prices the " + ok.name() + " branch" + hint);
+            return ok.graph();
+        }
+        Graph thenG = thenA.graph();
+        Graph elseG = elseA.graph();
+        Graph taken = thenG.nodes().size() >= elseG.nodes().size() ? thenG : elseG;
+        c.note("If condition is not known at analysis time; erg prices the larger branch ("
+                + (taken == thenG ? "then" : "else") + ")" + hint);
+        return taken;
+    }
+
+    /**
+     * A hint naming the graph inputs the condition depends on, found by walking back from it through
+     * producers (and the values their subgraphs read); empty when it depends on none.
+     */
+    static String conditionHint(InferContext c) {
+        java.util.Set<String> inputs = new java.util.TreeSet<>();
+        java.util.Set<Value> seen = java.util.Collections.newSetFromMap(new java.util.IdentityHashMap<>());
+        java.util.ArrayDeque<Value> todo = new java.util.ArrayDeque<>();
+        todo.add(c.in(0));
+        while (!todo.isEmpty()) {
+            Value v = todo.poll();
+            if (v == null || !seen.add(v) || v.isConstant()) {
+                continue;
+            }
+            if (v.isGraphInput()) {
+                inputs.add(v.name());
+                continue;
+            }
+            dev.erg.graph.Node p = v.producer();
+            if (p != null) {
+                for (Value in : p.inputs()) {
+                    if (in != null) {
+                        todo.add(in);
+                    }
+                }
+                todo.addAll(p.implicitInputs());
+            }
+        }
+        if (inputs.isEmpty()) {
+            return "";
+        }
+        StringBuilder b = new StringBuilder();
+        for (String in : inputs) {
+            b.append(b.length() == 0 ? "" : ", ").append("--value ").append(in).append("=...");
+        }
+        return "; the condition depends on the graph input" + (inputs.size() == 1 ? " " : "s ")
+                + String.join(", ", inputs) + ": bind " + (inputs.size() == 1 ? "it" : "them") + " ("
+                + b + ") to price the branch that runs";
     }
 
     /**

@@ -151,7 +151,12 @@ public final class InferContext {
             }
         }
         if (type == null) {
-            throw fail("output " + i + " gets no element type (an input's type is unknown)");
+            throw fail("output " + i + " ('" + v.name() + "') gets no element type: its type attribute names a code"
+                    + " the standard does not define, or an input's type is unknown");
+        }
+        if (type == ElemType.UNDEFINED) {
+            throw fail("output " + i + " ('" + v.name() + "') gets the undefined element type (code 0), which no"
+                    + " tensor may have");
         }
         v.setType(type, dims.clone());
     }
@@ -182,6 +187,12 @@ public final class InferContext {
     /** Records an assumption that the report should show beside this node. */
     public void note(String text) {
         node.setNote(node.note() == null ? text : node.note() + "; " + text);
+    }
+
+    /** A note that front ends show with the totals too (see {@link Node#warning()}). */
+    public void warn(String text) {
+        note(text);
+        node.setWarning(node.warning() == null ? text : node.warning() + "; " + text);
     }
 
     /** A bad-input error naming the file and this node. */

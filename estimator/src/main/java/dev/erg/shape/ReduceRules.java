@@ -24,7 +24,7 @@ final class ReduceRules {
     /** The reduced axes of a ReduceX node, in ascending order; all axes when none are given. */
     static boolean[] reducedAxes(InferContext c) {
         long[] d = c.dims(0);
-        long[] axes = TensorRules.axesOf(c, 1);
+        long[] axes = LayoutRules.axesOf(c, 1);
         boolean[] red = new boolean[d.length];
         if (axes == null || axes.length == 0) {
             boolean noop = c.attrInt("noop_with_empty_axes", 0) == 1;

@@ -39,6 +39,8 @@ public final class RuleTable {
         RuleTable t = new RuleTable();
         ElementwiseRules.register(t);
         TensorRules.register(t);
+        LayoutRules.register(t);
+        SelectRules.register(t);
         ConvRules.register(t);
         MatMulRules.register(t);
         PoolRules.register(t);

@@ -67,8 +67,10 @@ public final class ShapeInference {
         } catch (ArithmeticException e) {
             throw c.fail("has shapes whose arithmetic overflows 64 bits");
         } catch (RuntimeException e) {
-            throw c.fail("cannot be shaped (" + e.getClass().getSimpleName()
-                    + (e.getMessage() == null ? "" : ": " + e.getMessage()) + ")");
+            // A rule that indexes past an input's rank or an attribute's length: the node does not fit
+            // the operator definition. The sentence is about the node, never about erg's code.
+            throw c.fail("cannot be shaped: its inputs (" + ranks(n) + ") or attributes do not fit the operator"
+                    + " definition of " + n.opType() + " at opset " + n.opset());
         }
         if (c.unmodelledReason() != null) {
             n.setStatus(Node.Status.UNMODELLED);
@@ -83,6 +85,51 @@ public final class ShapeInference {
         }
         n.setStatus(Node.Status.SHAPED);
         markConstant(n);
+    }
+
+    /** "ranks 4, 1" of the node's present inputs, for messages. */
+    static String ranks(Node n) {
+        StringBuilder b = new StringBuilder();
+        for (Value v : n.inputs()) {
+            b.append(b.length() == 0 ? "" : ", ").append(v == null ? "-" : v.hasShape() ? String.valueOf(v.rank()) : "?");
+        }
+        return b.length() == 0 ? "none" : (n.inputs().size() == 1 ? "rank " : "ranks ") + b;
+    }
+
+    /**
+     * The stored tensors behind a folded node's inputs. When one input carries them all (a chain of
+     * Identity, Cast, Transpose or DequantizeLinear over a weight), its set is shared rather than
+     * copied, so that such chains cost nothing per node; a new set is made only where two sets meet.
+     */
+    private static Set<TensorDef> union(List<Value> ins, List<Value> implicit) {
+        Set<TensorDef> only = null;
+        boolean shared = true;
+        for (int pass = 0; pass < 2 && shared; pass++) {
+            for (Value v : pass == 0 ? ins : implicit) {
+                if (v == null || v.sources().isEmpty() || v.sources() == only) {
+                    continue;
+                }
+                if (only == null) {
+                    only = v.sources();
+                } else {
+                    shared = false;
+                    break;
+                }
+            }
+        }
+        if (shared) {
+            return only == null ? Set.of() : only;
+        }
+        Set<TensorDef> out = new LinkedHashSet<>();
+        for (Value v : ins) {
+            if (v != null) {
+                out.addAll(v.sources());
+            }
+        }
+        for (Value v : implicit) {
+            out.addAll(v.sources());
+        }
+        return java.util.Collections.unmodifiableSet(out);
     }
 
     private static void markConstant(Node n) {
@@ -114,15 +161,7 @@ public final class ShapeInference {
                     return;
                 }
             }
-            sources = new LinkedHashSet<>();
-            for (Value v : ins) {
-                if (v != null) {
-                    sources.addAll(v.sources());
-                }
-            }
-            for (Value v : n.implicitInputs()) {
-                sources.addAll(v.sources());
-            }
+            sources = union(ins, n.implicitInputs());
             if (present == 0 && n.implicitInputs().isEmpty() && !n.opType().equals("ConstantOfShape")
                     && !n.opType().equals("EyeLike")) {
                 constant = n.opType().equals("Range");

@@ -576,11 +576,26 @@ public final class OnnxWriter {
             return this;
         }
 
+        final List<Map.Entry<String, Long>> extraOpsets = new ArrayList<>();
+
+        /** One more opset_import entry (a second domain, or the same one again for hostile-input tests). */
+        public Model opsetImport(String domain, long version) {
+            extraOpsets.add(Map.entry(domain, version));
+            return this;
+        }
+
+        private static long opsetSize(String domain, long version) {
+            return stringField(1, domain) + varintField(2, version);
+        }
+
         @Override
         public long size() {
-            long opsetMsg = stringField(1, "") + varintField(2, opset);
-            return varintField(1, irVersion) + stringField(2, producer) + stringField(3, "0.1")
-                    + messageField(7, graph) + bytesField(8, opsetMsg);
+            long n = varintField(1, irVersion) + stringField(2, producer) + stringField(3, "0.1")
+                    + messageField(7, graph) + bytesField(8, opsetSize("", opset));
+            for (Map.Entry<String, Long> e : extraOpsets) {
+                n += bytesField(8, opsetSize(e.getKey(), e.getValue()));
+            }
+            return n;
         }
 
         @Override
@@ -593,6 +608,12 @@ public final class OnnxWriter {
             out.writeUInt64NoTag(stringField(1, "") + varintField(2, opset));
             writeString(out, 1, "");
             writeVarint(out, 2, opset);
+            for (Map.Entry<String, Long> e : extraOpsets) {
+                out.writeTag(8, 2);
+                out.writeUInt64NoTag(opsetSize(e.getKey(), e.getValue()));
+                writeString(out, 1, e.getKey());
+                writeVarint(out, 2, e.getValue());
+            }
         }
 
         public void write(Path file) {

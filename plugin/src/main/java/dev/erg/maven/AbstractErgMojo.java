@@ -3,6 +3,7 @@ package dev.erg.maven;
 import dev.erg.budget.GateResult;
 import dev.erg.device.DeviceLoader;
 import dev.erg.error.BadInputException;
+import dev.erg.graph.InputBindings;
 import dev.erg.graph.UnboundDimException;
 import dev.erg.report.Reports;
 import dev.erg.run.DeviceSpec;
@@ -85,8 +86,10 @@ abstract class AbstractErgMojo extends AbstractMojo {
         try {
             outcome = Runner.run(req, line -> getLog().info(PREFIX + line));
         } catch (UnboundDimException e) {
-            throw new MojoExecutionException(e.getMessage() + "; bind it with <dimensions><" + e.dim() + ">N</"
-                    + e.dim() + "></dimensions> in the <model>", e);
+            throw new MojoExecutionException(e.getMessage() + (e.dim() != null
+                    ? "; bind it with <dimensions><" + e.dim() + ">N</" + e.dim() + "></dimensions> in the <model>"
+                    : "; bind the whole shape with <shapes><" + e.input() + ">" + e.shapeExample() + "</"
+                            + e.input() + "></shapes> in the <model>"), e);
         } catch (BadInputException e) {
             throw new MojoExecutionException(e.getMessage(), e);
         }
@@ -123,7 +126,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
                 String label = m.getFile().strip();
                 where += " (" + label + ")";
                 ModelSpec spec = new ModelSpec(label, resolve(base, label, where + ".file"))
-                        .withDims(dimensions(where, m.getDimensions()));
+                        .withBindings(bindings(where, m));
                 if (m.getBudget() != null && checksBudgets()) {
                     spec = spec.withBudget(m.getBudget().toBudget(where + ".budget"));
                 }
@@ -171,7 +174,19 @@ abstract class AbstractErgMojo extends AbstractMojo {
         }
     }
 
-    private static Map<String, Long> dimensions(String where, Map<String, String> dims) {
+    /** The model's input bindings: {@code <dimensions>}, {@code <shapes>} and {@code <values>}. */
+    private static InputBindings bindings(String where, ModelConfig m) throws MojoExecutionException {
+        Map<String, Long> dims = dimensions(where, m.getDimensions());
+        try {
+            return InputBindings.parse(dims, m.getShapes() == null ? Map.of() : m.getShapes(),
+                    m.getValues() == null ? Map.of() : m.getValues(), "erg: " + where);
+        } catch (BadInputException e) {
+            throw new MojoExecutionException(e.getMessage(), e);
+        }
+    }
+
+    private static Map<String, Long> dimensions(String where, Map<String, String> dims)
+            throws MojoExecutionException {
         Map<String, Long> out = new LinkedHashMap<>();
         if (dims != null) {
             for (Map.Entry<String, String> e : dims.entrySet()) {

@@ -13,6 +13,8 @@ import java.util.Map;
  *   &lt;file&gt;src/main/onnx/feeder.onnx&lt;/file&gt;
  *   &lt;dimensions&gt;&lt;batch&gt;1&lt;/batch&gt;&lt;/dimensions&gt;
  *   &lt;budget&gt;&lt;maxLatencyMs&gt;80&lt;/maxLatencyMs&gt;&lt;/budget&gt;
+ *   &lt;shapes&gt;&lt;input&gt;1x576&lt;/input&gt;&lt;/shapes&gt;
+ *   &lt;values&gt;&lt;sr&gt;16000&lt;/sr&gt;&lt;/values&gt;
  * &lt;/model&gt;
  * </pre>
  */
@@ -25,6 +27,11 @@ public class ModelConfig {
 
     /** This model's own limits; each one set overrides the plugin's {@code <budget>} and the device's. */
     private BudgetConfig budget;
+    /** Whole shapes of graph inputs, dims joined by {@code x}, e.g. {@code <input>1x576</input>}. */
+    private Map<String, String> shapes = new LinkedHashMap<>();
+
+    /** Constant values of small graph inputs, e.g. {@code <sr>16000</sr>} or {@code <ids>1,2,3</ids>}. */
+    private Map<String, String> values = new LinkedHashMap<>();
 
     public ModelConfig() {
     }
@@ -56,5 +63,21 @@ public class ModelConfig {
 
     public void setBudget(BudgetConfig budget) {
         this.budget = budget;
+    }
+
+    public Map<String, String> getShapes() {
+        return shapes;
+    }
+
+    public void setShapes(Map<String, String> shapes) {
+        this.shapes = shapes;
+    }
+
+    public Map<String, String> getValues() {
+        return values;
+    }
+
+    public void setValues(Map<String, String> values) {
+        this.values = values;
     }
 }

@@ -265,6 +265,19 @@ class CheckMojoBehaviourTest {
 
     @Test
     @InjectMojo(goal = "check", pom = POM)
+    void malformedShapeAndValueNameTheModel(CheckMojo mojo) {
+        ModelConfig m = new ModelConfig("a.onnx", Map.of());
+        m.setShapes(Map.of("input", "1by576"));
+        mojo.models = List.of(m);
+        assertEquals("erg: models[0] (a.onnx): shape of 'input' is '1by576'; write whole dims joined by x, e.g. 1x576",
+                fault(mojo));
+        m.setShapes(Map.of());
+        m.setValues(Map.of("sr", "16k"));
+        assertEquals("erg: models[0] (a.onnx): value of 'sr' has '16k', which is not a number", fault(mojo));
+    }
+
+    @Test
+    @InjectMojo(goal = "check", pom = POM)
     void noDevices(CheckMojo mojo) {
         mojo.devices = List.of();
         assertEquals("erg: no devices configured; add <devices><device>preset:ID</device></devices> or a device"

@@ -50,9 +50,12 @@ class CheckMojoMappingTest {
         assertEquals(base.resolve("src/main/onnx/feeder.onnx"), first.file(), "resolved against the base directory");
         assertEquals(Map.of("batch", 1L, "frames", 49L), first.dims());
         assertTrue(first.budget().isEmpty());
+        assertEquals(Map.of("input", List.of(1L, 576L)), first.bindings().shapes());
+        assertEquals(Map.of("sr", List.of("16000"), "ids", List.of("1", "2", "3")), first.bindings().values());
         ModelSpec second = r.models().get(1);
         assertEquals("models/second.onnx", second.label());
         assertEquals(Map.of(), second.dims());
+        assertTrue(second.bindings().isEmpty());
         assertEquals(Map.of("maxLatencyMs", 80.0), second.budget().limits());
     }
 
