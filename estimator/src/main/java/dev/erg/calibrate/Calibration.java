@@ -1,36 +1,44 @@
 package dev.erg.calibrate;
 
+import java.util.ArrayList;
 import java.util.Collections;
 import java.util.EnumMap;
 import java.util.List;
 import java.util.Map;
+import java.util.TreeMap;
 
 /**
  * The result of a fit: the correction factors, every measured value next to its prediction before
- * and after, the error of the fit, and the leave-one-model-out error when at least three models
- * were measured. The factors apply to any node through {@link #latencySeconds(NodeCost)} and
- * {@link #energyJoules(NodeCost)}.
+ * and after, and, when at least three models were measured, every value predicted by a fit on the
+ * other models only (leave one model out). The factors apply to any node through
+ * {@link #latencySeconds(NodeCost)} and {@link #energyJoules(NodeCost)}.
  */
 public final class Calibration {
+    /** Which measured values an error summary covers. */
+    public enum Scope {
+        /** Whole-model values. */
+        MODELS,
+        /** Node values. */
+        LAYERS,
+        /** Both. */
+        ALL;
+
+        boolean covers(Residual r) {
+            return this == ALL || (this == MODELS) == (r.node() == null);
+        }
+    }
+
     private final EnumMap<Factor, FactorValue> factors;
     private final List<Residual> residuals;
-    private final Map<Factor.Metric, ErrorSummary> before;
-    private final Map<Factor.Metric, ErrorSummary> after;
-    private final Map<String, ErrorSummary> leaveOneOut;
-    private final ErrorSummary leaveOneOutAll;
+    private final List<Residual> heldOut;
     private final List<String> notes;
     private final List<MeasurementFile> files;
 
-    Calibration(EnumMap<Factor, FactorValue> factors, List<Residual> residuals,
-                Map<Factor.Metric, ErrorSummary> before, Map<Factor.Metric, ErrorSummary> after,
-                Map<String, ErrorSummary> leaveOneOut, ErrorSummary leaveOneOutAll, List<String> notes,
-                List<MeasurementFile> files) {
+    Calibration(EnumMap<Factor, FactorValue> factors, List<Residual> residuals, List<Residual> heldOut,
+                List<String> notes, List<MeasurementFile> files) {
         this.factors = new EnumMap<>(factors);
         this.residuals = List.copyOf(residuals);
-        this.before = Collections.unmodifiableMap(new EnumMap<>(before));
-        this.after = Collections.unmodifiableMap(new EnumMap<>(after));
-        this.leaveOneOut = leaveOneOut == null ? null : Collections.unmodifiableMap(new java.util.TreeMap<>(leaveOneOut));
-        this.leaveOneOutAll = leaveOneOutAll;
+        this.heldOut = heldOut == null ? null : List.copyOf(heldOut);
         this.notes = List.copyOf(notes);
         this.files = List.copyOf(files);
     }
@@ -44,32 +52,61 @@ public final class Calibration {
         return factors.get(f);
     }
 
-    /** Every measured value used by the fit, in file order. */
+    /** Every measured value the fit used, in file order: measured, predicted before and after the fit. */
     public List<Residual> residuals() {
         return residuals;
     }
 
-    /** The error with the profile as given, per metric (only metrics that were measured). */
-    public Map<Factor.Metric, ErrorSummary> errorBefore() {
-        return before;
-    }
-
-    /** The error of the fit, per metric (only metrics that were measured). */
-    public Map<Factor.Metric, ErrorSummary> errorAfter() {
-        return after;
-    }
-
     /**
-     * Per model, the error of its values predicted by a fit on the other models only; null when fewer
-     * than three models were measured.
+     * Every measured value predicted by a fit on the other models only ({@code after}), in model
+     * order; null when fewer than three models were measured.
      */
-    public Map<String, ErrorSummary> leaveOneModelOut() {
-        return leaveOneOut;
+    public List<Residual> heldOut() {
+        return heldOut;
     }
 
-    /** The leave-one-model-out error over every held-out value, or null with fewer than three models. */
-    public ErrorSummary leaveOneModelOutAll() {
-        return leaveOneOutAll;
+    /** The error with the profile as given. */
+    public ErrorSummary errorBefore(Factor.Metric metric, Scope scope) {
+        return summary(residuals, metric, scope, false);
+    }
+
+    /** The error of the fit on the values it was fitted to. */
+    public ErrorSummary errorAfter(Factor.Metric metric, Scope scope) {
+        return summary(residuals, metric, scope, true);
+    }
+
+    /** The leave-one-model-out error, or null with fewer than three models. */
+    public ErrorSummary leaveOneModelOut(Factor.Metric metric, Scope scope) {
+        return heldOut == null ? null : summary(heldOut, metric, scope, true);
+    }
+
+    /** Per held-out model, the error of its values; null with fewer than three models. */
+    public Map<String, ErrorSummary> leaveOneModelOutByModel(Factor.Metric metric, Scope scope) {
+        if (heldOut == null) {
+            return null;
+        }
+        Map<String, List<Residual>> by = new TreeMap<>();
+        for (Residual r : heldOut) {
+            by.computeIfAbsent(r.model(), k -> new ArrayList<>()).add(r);
+        }
+        Map<String, ErrorSummary> out = new TreeMap<>();
+        by.forEach((k, v) -> {
+            ErrorSummary s = summary(v, metric, scope, true);
+            if (s.count() > 0) {
+                out.put(k, s);
+            }
+        });
+        return out;
+    }
+
+    private static ErrorSummary summary(List<Residual> rs, Factor.Metric metric, Scope scope, boolean after) {
+        List<Double> e = new ArrayList<>();
+        for (Residual r : rs) {
+            if (r.metric() == metric && scope.covers(r)) {
+                e.add(after ? r.errorAfter() : r.errorBefore());
+            }
+        }
+        return ErrorSummary.of(e);
     }
 
     /** What the fit left out or kept, one sentence each. */

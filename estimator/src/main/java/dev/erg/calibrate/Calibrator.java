@@ -13,6 +13,7 @@ import java.util.TreeSet;
 import org.hipparchus.exception.MathIllegalStateException;
 import org.hipparchus.linear.Array2DRowRealMatrix;
 import org.hipparchus.linear.ArrayRealVector;
+import org.hipparchus.linear.DiagonalMatrix;
 import org.hipparchus.linear.RealVector;
 import org.hipparchus.optim.nonlinear.vector.leastsquares.LeastSquaresBuilder;
 import org.hipparchus.optim.nonlinear.vector.leastsquares.LeastSquaresOptimizer;
@@ -117,51 +118,37 @@ public final class Calibrator {
         }
         Fit all = fitEnergy(energy, lat, staticPowerWatts, notes, true);
         double[] neutral = neutral(latency, staticPowerWatts);
-        Map<Metric, List<Double>> errBefore = new EnumMap<>(Metric.class);
-        Map<Metric, List<Double>> errAfter = new EnumMap<>(Metric.class);
         for (Obs o : concat(latency, energy)) {
             double b = predict(o, neutral, false);
             double a = predict(o, all.values(), all.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
-            Residual r = new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a);
-            residuals.add(r);
-            errBefore.computeIfAbsent(o.metric(), k -> new ArrayList<>()).add(r.errorBefore());
-            errAfter.computeIfAbsent(o.metric(), k -> new ArrayList<>()).add(r.errorAfter());
+            residuals.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a));
         }
-        Map<Metric, ErrorSummary> before = new EnumMap<>(Metric.class);
-        Map<Metric, ErrorSummary> after = new EnumMap<>(Metric.class);
-        errBefore.forEach((k, v) -> before.put(k, ErrorSummary.of(v)));
-        errAfter.forEach((k, v) -> after.put(k, ErrorSummary.of(v)));
 
-        Map<String, ErrorSummary> lomo = null;
-        ErrorSummary lomoAll = null;
+        List<Residual> heldOut = null;
         TreeSet<String> measured = new TreeSet<>();
         for (Obs o : concat(latency, energy)) {
             measured.add(o.model());
         }
         if (measured.size() >= 3) {
-            lomo = new TreeMap<>();
-            List<Double> allErr = new ArrayList<>();
+            heldOut = new ArrayList<>();
             for (String held : measured) {
                 List<Obs> lt = latency.stream().filter(o -> !o.model().equals(held)).toList();
                 List<Obs> en = energy.stream().filter(o -> !o.model().equals(held)).toList();
                 Fit l = fitLatency(lt, new ArrayList<>(), false);
                 Fit e = fitEnergy(en, l, staticPowerWatts, new ArrayList<>(), false);
-                List<Double> err = new ArrayList<>();
                 for (Obs o : concat(latency, energy)) {
                     if (o.model().equals(held)) {
-                        err.add(predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()]) / o.measured() - 1);
+                        heldOut.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), predict(o, neutral, false),
+                                predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()])));
                     }
                 }
-                lomo.put(held, ErrorSummary.of(err));
-                allErr.addAll(err);
             }
-            lomoAll = ErrorSummary.of(allErr);
         }
         EnumMap<Factor, FactorValue> out = new EnumMap<>(Factor.class);
         for (Factor f : Factor.values()) {
             out.put(f, new FactorValue(f, all.values()[f.ordinal()], all.fitted()[f.ordinal()], all.notes().get(f)));
         }
-        return new Calibration(out, residuals, before, after, lomo, lomoAll, notes, files);
+        return new Calibration(out, residuals, heldOut, notes, files);
     }
 
     private static List<Obs> concat(List<Obs> a, List<Obs> b) {
@@ -305,6 +292,25 @@ public final class Calibrator {
 
     // ---- the fits ---------------------------------------------------------------------------
 
+    /**
+     * A whole-model value weighs as much as all the node values of its model together (at least 1), so
+     * that the total of a model with 300 measured layers is not drowned by them; a node value weighs 1.
+     */
+    private static double[] weights(List<Obs> obs) {
+        Map<String, Integer> nodeRows = new LinkedHashMap<>();
+        for (Obs o : obs) {
+            if (o.node() != null) {
+                nodeRows.merge(o.model(), 1, Integer::sum);
+            }
+        }
+        double[] w = new double[obs.size()];
+        for (int i = 0; i < w.length; i++) {
+            Obs o = obs.get(i);
+            w[i] = o.node() != null ? 1 : Math.max(1, nodeRows.getOrDefault(o.model(), 0));
+        }
+        return w;
+    }
+
     private static Fit fitLatency(List<Obs> obs, List<String> notes, boolean say) {
         double[] start = neutral(obs, 0);
         boolean[] fitted = new boolean[start.length];
@@ -424,6 +430,7 @@ public final class Calibrator {
             LeastSquaresProblem problem = new LeastSquaresBuilder()
                     .start(theta0)
                     .target(target)
+                    .weight(new DiagonalMatrix(weights(obs)))
                     .model(point -> {
                         double[] f = start.clone();
                         for (int j = 0; j < idx.length; j++) {

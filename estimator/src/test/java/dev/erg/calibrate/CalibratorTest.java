@@ -2,7 +2,6 @@ package dev.erg.calibrate;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
-import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertNull;
 import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
@@ -102,14 +101,21 @@ class CalibratorTest {
             assertTrue(got.fitted(), e.getKey() + " " + got.note());
             assertEquals(e.getValue(), got.value(), 1e-6 * e.getValue(), e.getKey().key);
         }
-        ErrorSummary after = c.errorAfter().get(Factor.Metric.LATENCY);
+        ErrorSummary after = c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.ALL);
         assertEquals(71 + 3, after.count());
+        assertEquals(3, c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.MODELS).count());
         assertTrue(after.worst() < 1e-6, "worst " + after.worst());
-        assertTrue(c.errorBefore().get(Factor.Metric.LATENCY).median() > 0.5, "the profile as given is far off");
-        assertTrue(c.errorAfter().get(Factor.Metric.ENERGY).worst() < 1e-6);
+        assertTrue(c.errorBefore(Factor.Metric.LATENCY, Calibration.Scope.ALL).median() > 0.5, "the profile as given is far off");
+        assertTrue(c.errorAfter(Factor.Metric.ENERGY, Calibration.Scope.ALL).worst() < 1e-6);
         // Three models: each one predicted from a fit on the other two is exact too.
-        assertEquals(List.of("a.onnx", "b.onnx", "c.onnx"), List.copyOf(c.leaveOneModelOut().keySet()));
-        assertTrue(c.leaveOneModelOutAll().worst() < 1e-5, "held out " + c.leaveOneModelOutAll());
+        assertEquals(List.of("a.onnx", "b.onnx", "c.onnx"),
+                List.copyOf(c.leaveOneModelOutByModel(Factor.Metric.LATENCY, Calibration.Scope.MODELS).keySet()));
+        ErrorSummary held = c.leaveOneModelOut(Factor.Metric.LATENCY, Calibration.Scope.ALL);
+        assertEquals(74, held.count());
+        assertTrue(held.worst() < 1e-5, "held out " + held);
+        // The calibration applies to a node of a model it never saw.
+        NodeCost fresh = model("d.onnx", 1, 9).nodes().get(0);
+        assertEquals(Calibrator.latency(fresh, values(truth()), true), c.latencySeconds(fresh), 1e-12);
     }
 
     @Test
@@ -130,8 +136,8 @@ class CalibratorTest {
             }
         }
         // With as many factors as values, the fit goes through every value.
-        assertTrue(c.errorAfter().get(Factor.Metric.LATENCY).worst() < 1e-6);
-        assertTrue(c.errorBefore().get(Factor.Metric.LATENCY).median() > 0.5);
+        assertTrue(c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.ALL).worst() < 1e-6);
+        assertTrue(c.errorBefore(Factor.Metric.LATENCY, Calibration.Scope.ALL).median() > 0.5);
     }
 
     @Test
@@ -167,9 +173,10 @@ class CalibratorTest {
         assertEquals(2e-3, c.factor(Factor.STATIC_POWER).value());
         assertEquals("no energy or power was measured", c.factor(Factor.ENERGY_SCALE_DRAM).note());
         assertEquals(1.0, c.factor(Factor.ENERGY_SCALE_DRAM).value());
-        assertNull(c.leaveOneModelOut(), "one model: no leave-one-model-out error");
-        assertNotNull(c.errorAfter().get(Factor.Metric.LATENCY));
-        assertNull(c.errorAfter().get(Factor.Metric.ENERGY));
+        assertNull(c.heldOut(), "one model: no leave-one-model-out error");
+        assertNull(c.leaveOneModelOut(Factor.Metric.LATENCY, Calibration.Scope.ALL));
+        assertEquals(24, c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.LAYERS).count());
+        assertEquals(0, c.errorAfter(Factor.Metric.ENERGY, Calibration.Scope.ALL).count());
         assertEquals(0.42, c.factor(Factor.EFFICIENCY_DENSE_CONV).value(), 1e-6);
     }
 }
