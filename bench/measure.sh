@@ -2,7 +2,7 @@
 # erg measure on this host: times the reference models in onnxruntime and prints one line per model.
 #
 #   bash bench/measure.sh                 # from anywhere; finds the repository root itself
-#   RUNS=50 WARMUP=10 bash bench/measure.sh
+#   RUNS=50 WARMUP=10 CLOCK=wall bash bench/measure.sh   (defaults: 50, 10, cpu: the thread's CPU time)
 #   SHARED=/path/to/shared/models bash bench/measure.sh
 #   OUT=estimator/src/test/resources/measurements/host-cpu bash bench/measure.sh   # re-record the test data
 #
@@ -11,7 +11,8 @@
 #   2. makes runnable copies of the weight-stripped *.graph.onnx models of the shared model set in
 #      bench/scratch/models/ (bench/fill_weights.py: seeded random weights, same file and node names;
 #      needs Debian's python3-onnx and python3-numpy) and copies the demo models, which carry weights;
-#   3. runs 'erg measure' on every model (1 intra-op thread, graph optimisations off) and writes
+#   3. runs 'erg measure' on every model (1 intra-op thread, graph optimisations off, whole runs timed
+#      by the CPU time of the calling thread, which a busy shared machine disturbs less than the wall clock) and writes
 #      measurements.csv (the calibration's measurement file) and measurements.json (every run) to $OUT;
 #   4. prints per model the median and p90 latency, and the sum of its node medians.
 # bench/ is not a Maven module: 'mvn test' never runs it. The tests read the recorded files only.
@@ -51,7 +52,7 @@ for d in feeder_cnn lstm_kws; do
   list+=("$models/$d.onnx")
 done
 
-java -jar "$jar" measure "${list[@]}" --runs "$runs" --warmup "$warmup" --threads 1 --top 0 \
+java -jar "$jar" measure "${list[@]}" --runs "$runs" --warmup "$warmup" --threads 1 --clock "${CLOCK:-cpu}" --top 0 \
   --csv "$out/measurements.csv" --json "$out/measurements.json" >bench/scratch/measure-console.txt
 printf '%-34s %10s %10s %12s %6s\n' model "median ms" "p90 ms" "node sum ms" nodes
 grep -B1 "^  model:" bench/scratch/measure-console.txt | awk '

@@ -76,6 +76,12 @@ public final class MeasurementFile {
         return List.copyOf(new TreeSet<>(rows.stream().map(Measurement::model).toList()));
     }
 
+    /** The same file limited to the rows of {@code models} (for a fit on some models and a check on the others). */
+    public MeasurementFile only(Collection<String> models) {
+        List<Measurement> kept = rows.stream().filter(m -> models.contains(m.model())).toList();
+        return new MeasurementFile(file, sha256, kept, notes);
+    }
+
     /**
      * Reads and checks {@code file}.
      *

@@ -108,5 +108,49 @@ class RecordedHostTest {
             }
         }
         System.out.println(b);
+        // Fitting the named factors to 1009 measured layers must bring their error down, and so must
+        // predicting each model from a fit on the others: the factors carry over between models.
+        double before = c.errorBefore(LATENCY, Calibration.Scope.LAYERS).median();
+        assertTrue(c.errorAfter(LATENCY, Calibration.Scope.LAYERS).median() < 0.5 * before, b.toString());
+        assertTrue(c.leaveOneModelOut(LATENCY, Calibration.Scope.LAYERS).median() < 0.6 * before, b.toString());
+        assertEquals(11, c.leaveOneModelOutByModel(LATENCY, Calibration.Scope.MODELS).size());
+        for (FactorValue f : c.factors().values()) {
+            assertTrue(f.fitted() == (f.factor().metric == LATENCY), f.toString());
+        }
+    }
+
+    /** The validation protocol of docs/validation.md: fit on three models, predict the whole latency of the others. */
+    @Test
+    void threeModelsPredictTheOthers() {
+        DeviceProfile host = DeviceLoader.load("stand-in-host.yaml", DIR);
+        Map<String, ModelCosts> costs = new LinkedHashMap<>();
+        workloads.forEach((m, w) -> costs.put(m, ModelCosts.of(m, Estimator.estimate(w, host))));
+        List<String> fitOn = List.of("mobilenet_v2.graph.onnx", "resnet18.graph.onnx", "tiny_transformer.graph.onnx");
+        Calibration c = Calibrator.fit(fitOn.stream().map(costs::get).toList(), List.of(file.only(fitOn)), 0);
+        List<Double> before = new ArrayList<>();
+        List<Double> after = new ArrayList<>();
+        StringBuilder b = new StringBuilder("fitted on " + fitOn + "\n");
+        for (Measurement m : file.rows()) {
+            if (m.node() != null || fitOn.contains(m.model())) {
+                continue;
+            }
+            double p0 = 0;
+            double p1 = 0;
+            for (NodeCost n : costs.get(m.model()).nodes()) {
+                p0 += n.predictedSeconds();
+                p1 += c.latencySeconds(n);
+            }
+            before.add(p0 / m.latencySeconds() - 1);
+            after.add(p1 / m.latencySeconds() - 1);
+            b.append(String.format(Locale.ROOT, "%-34s measured %8.3f ms  profile %8.3f ms (%+.0f%%)  calibrated %8.3f ms (%+.0f%%)%n",
+                    m.model(), m.latencySeconds() * 1e3, p0 * 1e3, 100 * (p0 / m.latencySeconds() - 1), p1 * 1e3,
+                    100 * (p1 / m.latencySeconds() - 1)));
+        }
+        ErrorSummary e0 = ErrorSummary.of(before);
+        ErrorSummary e1 = ErrorSummary.of(after);
+        b.append(String.format(Locale.ROOT, "before: median %.0f%%, worst %.0f%%; after: median %.0f%%, worst %.0f%%%n",
+                100 * e0.median(), 100 * e0.worst(), 100 * e1.median(), 100 * e1.worst()));
+        System.out.println(b);
+        assertEquals(8, e1.count());
     }
 }

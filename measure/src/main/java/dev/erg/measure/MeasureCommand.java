@@ -45,6 +45,11 @@ public final class MeasureCommand implements Callable<Integer> {
             description = "Seed of the generated inputs (default: ${DEFAULT-VALUE}).")
     long seed;
 
+    @Option(names = "--clock", paramLabel = "wall|cpu", defaultValue = "wall",
+            description = "What times whole runs: wall (default) or cpu, the calling thread's CPU time, which leaves out"
+                    + " the waits of a busy machine (needs --threads 1).")
+    String clock;
+
     @Option(names = "--csv", paramLabel = "FILE", description = "Writes the measurement file (model,node,latency-ms).")
     Path csv;
 
@@ -64,11 +69,14 @@ public final class MeasureCommand implements Callable<Integer> {
         check(warmups >= 0 && warmups <= 100_000, "--warmup must be from 0 to 100000, not " + warmups);
         check(threads >= 1 && threads <= 1024, "--threads must be from 1 to 1024, not " + threads);
         check(top >= 0, "--top must be 0 or more, not " + top);
+        check(clock.equals("wall") || clock.equals("cpu"), "--clock must be wall or cpu, not '" + clock + "'");
+        check(clock.equals("wall") || threads == 1, "--clock cpu times one thread: use it with --threads 1");
         Map<String, Long> bound = dims(dims);
         PrintWriter out = spec.commandLine().getOut();
         List<ModelTiming> timings = new ArrayList<>();
         for (Path m : models) {
-            ModelTiming t = ModelRunner.measure(m, bound, threads, warmups, runs, seed);
+            ModelTiming t = ModelRunner.measure(m, bound, threads, warmups, runs, seed,
+                    clock.equals("cpu") ? ModelRunner.Clock.CPU : ModelRunner.Clock.WALL);
             timings.add(t);
             out.print(TimingTable.render(t, top));
             out.flush();

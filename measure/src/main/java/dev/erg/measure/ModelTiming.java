@@ -9,6 +9,7 @@ import java.util.List;
  * @param runtime     "onnxruntime VERSION, CPU"
  * @param threads     intra-op threads
  * @param warmups     untimed runs before the timed ones
+ * @param clock       what timed the whole runs: "wall" (wall-clock time) or "cpu" (the calling thread's CPU time)
  * @param runMs       the wall time of every timed run, in milliseconds, in run order
  * @param medianMs    the median of {@code runMs}
  * @param p90Ms       the 90th percentile of {@code runMs} (nearest rank)
@@ -20,7 +21,7 @@ import java.util.List;
  * @param measuredAt  when the timed runs ended (UTC, ISO-8601, to the second)
  * @param host        the host's processor and logical core count
  */
-public record ModelTiming(String model, String runtime, int threads, int warmups, double[] runMs, double medianMs,
+public record ModelTiming(String model, String runtime, int threads, int warmups, String clock, double[] runMs, double medianMs,
                           double p90Ms, List<NodeTiming> nodes, List<String> inputs, List<String> notRun, long seed,
                           String measuredAt, String host) {
     /** The sum of the node medians: the time spent inside kernels, without the runtime's own work between them. */

@@ -26,7 +26,8 @@ final class TimingFiles {
             b.append("# ").append(t.model()).append(": erg measure, ").append(t.runtime()).append(", ")
                     .append(t.threads()).append(t.threads() == 1 ? " intra-op thread" : " intra-op threads")
                     .append(", graph optimisations off, ").append(t.warmups()).append(" warm-up + ")
-                    .append(t.runMs().length).append(" timed runs, medians; inputs seeded ").append(t.seed())
+                    .append(t.runMs().length).append(" timed runs, medians, whole runs by the ").append(t.clock())
+                    .append(" clock; inputs seeded ").append(t.seed())
                     .append("; host ").append(t.host()).append("; ").append(t.measuredAt()).append('\n');
         }
         b.append("model,node,latency-ms\n");
@@ -57,6 +58,7 @@ final class TimingFiles {
             o.put("threads", t.threads());
             o.put("warm-up-runs", t.warmups());
             o.put("timed-runs", t.runMs().length);
+            o.put("clock", t.clock());
             o.put("seed", t.seed());
             ArrayNode in = o.putArray("inputs");
             t.inputs().forEach(in::add);

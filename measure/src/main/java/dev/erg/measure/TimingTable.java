@@ -37,9 +37,14 @@ final class TimingTable {
                 b.append("  ... ").append(slow.size() - shown).append(" more nodes (all of them in --csv / --json)\n");
             }
         }
-        b.append(String.format(Locale.ROOT, "  model: median %.3f ms, p90 %.3f ms over %d runs (after %d warm-up);"
+        b.append(String.format(Locale.ROOT, "  model: median %.3f ms, p90 %.3f ms over %d runs (after %d warm-up, %s clock);"
                 + " %d nodes timed, their medians sum to %.3f ms%n", t.medianMs(), t.p90Ms(), t.runMs().length,
-                t.warmups(), t.nodes().size(), t.nodeSumMs()));
+                t.warmups(), t.clock(), t.nodes().size(), t.nodeSumMs()));
+        if (t.nodeSumMs() > 1.2 * t.medianMs()) {
+            b.append(String.format(Locale.ROOT, "  note: the node medians sum to %.0f%% of the model's median: the"
+                    + " machine was busier while the nodes were profiled; measure again on a quieter machine%n",
+                    100 * t.nodeSumMs() / t.medianMs()));
+        }
         return b.toString();
     }
 }
