@@ -141,6 +141,29 @@ class CalibratorTest {
     }
 
     @Test
+    void powerTimesLatencyIsEnergy() throws IOException {
+        // A power meter's reading while the model runs back to back: energy = power x latency.
+        List<ModelCosts> models = List.of(model("a.onnx", 24, 1), model("b.onnx", 17, 2));
+        double[] v = values(truth());
+        StringBuilder b = new StringBuilder("model,node,latency-ms,power-mw\n");
+        for (ModelCosts m : models) {
+            for (NodeCost n : m.nodes()) {
+                double t = Calibrator.latency(n, v, true);
+                double e = Calibrator.energy(n, v, t);
+                b.append(String.format(Locale.ROOT, "%s,%s,%.17g,%.17g%n", m.model(), n.name(), t * 1e3, e / t * 1e3));
+            }
+        }
+        Path p = dir.resolve("meter.csv");
+        Files.writeString(p, b.toString());
+        Calibration c = Calibrator.fit(models, List.of(MeasurementFile.read(p)), 1e-3);
+        for (Factor f : List.of(Factor.ENERGY_SCALE_COMPUTE, Factor.ENERGY_SCALE_ON_CHIP, Factor.ENERGY_SCALE_DRAM,
+                Factor.STATIC_POWER)) {
+            assertEquals(truth().get(f), c.factor(f).value(), 1e-6 * truth().get(f), f.key);
+        }
+        assertEquals(41, c.errorAfter(Factor.Metric.ENERGY, Calibration.Scope.LAYERS).count());
+    }
+
+    @Test
     void nothingToFitEndsInOneLine() throws IOException {
         List<ModelCosts> models = List.of(model("a.onnx", 4, 1));
         Path zeros = dir.resolve("zeros.csv");

@@ -9,6 +9,15 @@ final class Host {
     private Host() {
     }
 
+    /**
+     * onnxruntime's environment, logging fatal errors only: a model the runtime cannot load is
+     * reported by erg in one line, not by the runtime's own log as well.
+     */
+    static ai.onnxruntime.OrtEnvironment runtime() {
+        return ai.onnxruntime.OrtEnvironment.getEnvironment(
+                ai.onnxruntime.OrtLoggingLevel.ORT_LOGGING_LEVEL_FATAL, "erg");
+    }
+
     /** "MODEL NAME, N logical cores" (the model name from /proc/cpuinfo on Linux, else the architecture). */
     static String describe() {
         return cpuName() + ", " + Runtime.getRuntime().availableProcessors() + " logical cores";

@@ -27,7 +27,7 @@ final class HostBench {
     }
 
     static HostMeasurements run(int threads, int warmups, int runs, int matmulSide, int addElements) {
-        OrtEnvironment env = OrtEnvironment.getEnvironment();
+        OrtEnvironment env = Host.runtime();
         String runtime = "onnxruntime " + env.getVersion() + " (CPU, " + threads
                 + (threads == 1 ? " intra-op thread" : " intra-op threads") + ")";
         Map<String, String> sources = new LinkedHashMap<>();

@@ -73,7 +73,7 @@ final class ModelRunner {
         }
         ModelWorkload w = Analyzer.analyze(model, dims);
         String label = model.getFileName().toString();
-        OrtEnvironment env = OrtEnvironment.getEnvironment();
+        OrtEnvironment env = Host.runtime();
         List<String> described = new ArrayList<>();
         Map<String, OnnxTensor> inputs = null;
         Path profileDir = null;

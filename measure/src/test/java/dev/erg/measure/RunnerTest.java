@@ -1,9 +1,12 @@
 package dev.erg.measure;
 
 import static org.junit.jupiter.api.Assertions.assertEquals;
+import static org.junit.jupiter.api.Assertions.assertFalse;
+import static org.junit.jupiter.api.Assertions.assertThrows;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
 import dev.erg.calibrate.MeasurementFile;
+import dev.erg.error.BadInputException;
 import dev.erg.onnx.ElemType;
 import dev.erg.onnx.OnnxWriter;
 import java.io.IOException;
@@ -22,6 +25,21 @@ import org.junit.jupiter.api.io.TempDir;
 class RunnerTest {
     @TempDir
     Path dir;
+
+    @Test
+    void aModelWithoutItsWeightsEndsInOneLine() throws IOException {
+        Path model = dir.resolve("stripped.onnx");
+        new OnnxWriter.Model(13, new OnnxWriter.Graph("g")
+                .input("x", ElemType.FLOAT, 1, 4, 8, 8)
+                .initializer(new OnnxWriter.Tensor("w", ElemType.FLOAT, 4, 4, 3, 3).external("stripped.bin", 0, 576))
+                .node("Conv", "conv", List.of("x", "w"), List.of("y"))
+                .output("y", ElemType.FLOAT))
+                .write(model);
+        String e = assertThrows(BadInputException.class, () -> ModelRunner.measure(model, Map.of(), 1, 0, 1, 1))
+                .getMessage();
+        assertTrue(e.startsWith(model + ": onnxruntime cannot run the model: "), e);
+        assertFalse(e.contains("\n"), e);
+    }
 
     @Test
     void namelessNodesAreMatchedByTheRuntimesGeneratedName() throws IOException {
