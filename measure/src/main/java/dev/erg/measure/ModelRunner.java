@@ -32,13 +32,10 @@ import java.util.Map;
  * unoptimised graph, which is the graph erg prices. Execution is sequential, with {@code threads}
  * intra-op threads and one inter-op thread.
  *
- * <p>Two sessions run: the first times whole runs (warm-ups, then the timed runs), the second
- * repeats the same runs with the runtime's profiler on and gives the per-node kernel times. Keeping
- * the profiler out of the first session keeps its small per-node cost out of the model latency.
- *
- * <p>With the CPU clock, a kernel's time in a run is scaled by that run's CPU time over its wall
- * time: the time a busy machine took away from the run is taken out of its kernels in proportion to
- * their length, which is how interruptions that come at random moments fall on them.
+ * <p>Two sessions run: the first times whole runs with the wall clock (warm-ups, then the timed
+ * runs), the second repeats the same runs with the runtime's profiler on and gives the per-node
+ * kernel times. Keeping the profiler out of the first session keeps its small per-node cost out
+ * of the model latency.
  */
 final class ModelRunner {
     private ModelRunner() {
@@ -98,24 +95,18 @@ final class ModelRunner {
             String measuredAt = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
             profileDir = Files.createTempDirectory("erg-measure");
             ProfileEvents events;
-            double[] share = new double[warmups + runs];
             try (OrtSession.SessionOptions o = options(threads)) {
                 o.enableProfiling(profileDir.resolve("profile").toString());
                 try (OrtSession s = open(env, model, o)) {
                     for (int i = 0; i < warmups + runs; i++) {
-                        long c0 = clock == Clock.CPU ? mx.getCurrentThreadCpuTime() : 0;
-                        long t0 = System.nanoTime();
                         run(s, inputs, model);
-                        long t1 = System.nanoTime();
-                        long c1 = clock == Clock.CPU ? mx.getCurrentThreadCpuTime() : 0;
-                        share[i] = clock == Clock.CPU && t1 > t0 ? Math.min(1, (double) (c1 - c0) / (t1 - t0)) : 1;
                     }
                     events = ProfileEvents.read(Path.of(s.endProfiling()));
                 }
             }
             List<NodeTiming> nodes = new ArrayList<>();
             List<String> notRun = new ArrayList<>();
-            match(w, events, runs, clock == Clock.CPU ? share : null, nodes, notRun, label);
+            match(w, events, runs, nodes, notRun, label);
             return new ModelTiming(label, "onnxruntime " + env.getVersion() + ", CPU", threads, warmups, clock.label, runMs,
                     Stats.median(runMs), Stats.quantile(runMs, 0.9), nodes, described, notRun, seed, measuredAt,
                     Host.describe());
@@ -138,8 +129,7 @@ final class ModelRunner {
      * without the Constant nodes (which the runtime turns into initializers); erg names the same node
      * by its first output. Every pair is checked by operator too.
      */
-    static void match(ModelWorkload w, ProfileEvents events, int runs, double[] share, List<NodeTiming> nodes,
-                      List<String> notRun,
+    static void match(ModelWorkload w, ProfileEvents events, int runs, List<NodeTiming> nodes, List<String> notRun,
                       String label) {
         List<Node> inFile = new ArrayList<>();
         Set<String> named = new HashSet<>();
@@ -173,9 +163,8 @@ final class ModelRunner {
             // The first entries belong to the warm-up runs.
             List<Double> timed = d.subList(Math.max(0, d.size() - runs), d.size());
             double[] ms = new double[timed.size()];
-            boolean scale = share != null && d.size() == share.length;
             for (int i = 0; i < ms.length; i++) {
-                ms[i] = timed.get(i) / 1000.0 * (scale ? share[d.size() - ms.length + i] : 1);
+                ms[i] = timed.get(i) / 1000.0;
             }
             nodes.add(new NodeTiming(nw.name(), nw.opType(), Stats.median(ms), Stats.quantile(ms, 0.9), ms.length));
         }
