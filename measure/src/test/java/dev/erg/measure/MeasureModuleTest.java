@@ -26,7 +26,7 @@ class MeasureModuleTest {
     void tinyModelLoadsInOnnxruntime() throws OrtException {
         // onnxruntime reads the hand-encoded ModelProto and reports the declared inputs and output.
         byte[] bytes = TinyModel.binary("MatMul", new long[] {4, 8}, new long[] {8, 3}, new long[] {4, 3});
-        OrtEnvironment env = OrtEnvironment.getEnvironment();
+        OrtEnvironment env = Host.runtime();
         try (OrtSession.SessionOptions o = new OrtSession.SessionOptions(); OrtSession s = env.createSession(bytes, o)) {
             Map<String, NodeInfo> in = s.getInputInfo();
             assertEquals(List.of("a", "b"), List.copyOf(in.keySet()));
