@@ -15,6 +15,7 @@ import java.nio.file.Path;
 import java.time.Instant;
 import java.time.temporal.ChronoUnit;
 import java.util.ArrayList;
+import java.util.Arrays;
 import java.util.Comparator;
 import java.util.HashMap;
 import java.util.HashSet;
@@ -32,10 +33,13 @@ import java.util.Map;
  * unoptimised graph, which is the graph erg prices. Execution is sequential, with {@code threads}
  * intra-op threads and one inter-op thread.
  *
- * <p>Two sessions run: the first times whole runs with the wall clock (warm-ups, then the timed
- * runs), the second repeats the same runs with the runtime's profiler on and gives the per-node
- * kernel times. Keeping the profiler out of the first session keeps its small per-node cost out
- * of the model latency.
+ * <p>Two sessions run: the first times whole runs (warm-ups, then the timed runs), the second
+ * repeats the same runs with the runtime's profiler on and gives the per-node kernel times. Keeping
+ * the profiler out of the first session keeps its small per-node cost out of the model latency.
+ *
+ * <p>With the CPU clock, the per-node medians are taken over the profiled runs that the machine
+ * disturbed least ({@link #leastDisturbed}): kernel times are wall times, and on a busy machine the
+ * long kernels of most runs are interrupted.
  */
 final class ModelRunner {
     private ModelRunner() {
@@ -95,18 +99,26 @@ final class ModelRunner {
             String measuredAt = Instant.now().truncatedTo(ChronoUnit.SECONDS).toString();
             profileDir = Files.createTempDirectory("erg-measure");
             ProfileEvents events;
+            double[] share = new double[runs];
             try (OrtSession.SessionOptions o = options(threads)) {
                 o.enableProfiling(profileDir.resolve("profile").toString());
                 try (OrtSession s = open(env, model, o)) {
                     for (int i = 0; i < warmups + runs; i++) {
+                        long c0 = clock == Clock.CPU ? mx.getCurrentThreadCpuTime() : 0;
+                        long t0 = System.nanoTime();
                         run(s, inputs, model);
+                        long t1 = System.nanoTime();
+                        long c1 = clock == Clock.CPU ? mx.getCurrentThreadCpuTime() : 0;
+                        if (i >= warmups) {
+                            share[i - warmups] = clock == Clock.CPU && t1 > t0 ? (double) (c1 - c0) / (t1 - t0) : 1;
+                        }
                     }
                     events = ProfileEvents.read(Path.of(s.endProfiling()));
                 }
             }
             List<NodeTiming> nodes = new ArrayList<>();
             List<String> notRun = new ArrayList<>();
-            match(w, events, runs, nodes, notRun, label);
+            match(w, events, runs, clock == Clock.CPU ? leastDisturbed(share) : null, nodes, notRun, label);
             return new ModelTiming(label, "onnxruntime " + env.getVersion() + ", CPU", threads, warmups, clock.label, runMs,
                     Stats.median(runMs), Stats.quantile(runMs, 0.9), nodes, described, notRun, seed, measuredAt,
                     Host.describe());
@@ -129,8 +141,30 @@ final class ModelRunner {
      * without the Constant nodes (which the runtime turns into initializers); erg names the same node
      * by its first output. Every pair is checked by operator too.
      */
-    static void match(ModelWorkload w, ProfileEvents events, int runs, List<NodeTiming> nodes, List<String> notRun,
-                      String label) {
+    /**
+     * The timed runs that a busy machine disturbed least: every run whose CPU time is at least 95% of
+     * its wall time, and at least the quarter of the runs with the highest such share.
+     */
+    static boolean[] leastDisturbed(double[] share) {
+        Integer[] order = new Integer[share.length];
+        for (int i = 0; i < order.length; i++) {
+            order[i] = i;
+        }
+        Arrays.sort(order, (a, b) -> Double.compare(share[b], share[a]));
+        int keep = (share.length + 3) / 4;
+        boolean[] kept = new boolean[share.length];
+        for (int r = 0; r < order.length; r++) {
+            kept[order[r]] = r < keep || share[order[r]] >= 0.95;
+        }
+        return kept;
+    }
+
+    /**
+     * Pairs the profile's nodes with erg's and takes each node's median kernel time over the timed
+     * runs ({@code kept}: only over those runs; null: over all of them).
+     */
+    static void match(ModelWorkload w, ProfileEvents events, int runs, boolean[] kept, List<NodeTiming> nodes,
+                      List<String> notRun, String label) {
         List<Node> inFile = new ArrayList<>();
         Set<String> named = new HashSet<>();
         for (NodeWork nw : w.nodes()) {
@@ -162,10 +196,15 @@ final class ModelRunner {
             used.add(ort);
             // The first entries belong to the warm-up runs.
             List<Double> timed = d.subList(Math.max(0, d.size() - runs), d.size());
-            double[] ms = new double[timed.size()];
-            for (int i = 0; i < ms.length; i++) {
-                ms[i] = timed.get(i) / 1000.0;
+            boolean select = kept != null && timed.size() == kept.length;
+            double[] all = new double[timed.size()];
+            int n = 0;
+            for (int i = 0; i < all.length; i++) {
+                if (!select || kept[i]) {
+                    all[n++] = timed.get(i) / 1000.0;
+                }
             }
+            double[] ms = Arrays.copyOf(all, n);
             nodes.add(new NodeTiming(nw.name(), nw.opType(), Stats.median(ms), Stats.quantile(ms, 0.9), ms.length));
         }
         List<String> unknown = new ArrayList<>();
