@@ -129,9 +129,19 @@ class RecordedHostTest {
         Calibration c = Calibrator.fit(fitOn.stream().map(costs::get).toList(), List.of(file.only(fitOn)), 0);
         List<Double> before = new ArrayList<>();
         List<Double> after = new ArrayList<>();
+        List<Double> layersBefore = new ArrayList<>();
+        List<Double> layersAfter = new ArrayList<>();
         StringBuilder b = new StringBuilder("fitted on " + fitOn + "\n");
         for (Measurement m : file.rows()) {
-            if (m.node() != null || fitOn.contains(m.model())) {
+            if (fitOn.contains(m.model())) {
+                continue;
+            }
+            if (m.node() != null) {
+                NodeCost n = costs.get(m.model()).byName().get(m.node());
+                if (n != null && m.latencySeconds() > 0) {
+                    layersBefore.add(n.predictedSeconds() / m.latencySeconds() - 1);
+                    layersAfter.add(c.latencySeconds(n) / m.latencySeconds() - 1);
+                }
                 continue;
             }
             double p0 = 0;
@@ -150,7 +160,13 @@ class RecordedHostTest {
         ErrorSummary e1 = ErrorSummary.of(after);
         b.append(String.format(Locale.ROOT, "before: median %.0f%%, worst %.0f%%; after: median %.0f%%, worst %.0f%%%n",
                 100 * e0.median(), 100 * e0.worst(), 100 * e1.median(), 100 * e1.worst()));
+        ErrorSummary l0 = ErrorSummary.of(layersBefore);
+        ErrorSummary l1 = ErrorSummary.of(layersAfter);
+        b.append(String.format(Locale.ROOT, "layers of the other models: before median %.0f%%, after median %.0f%% (%d layers)%n",
+                100 * l0.median(), 100 * l1.median(), l1.count()));
         System.out.println(b);
         assertEquals(8, e1.count());
+        // The factors fitted on three models carry over to the layers of eight others.
+        assertTrue(l1.median() < 0.6 * l0.median(), b.toString());
     }
 }
