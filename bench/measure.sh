@@ -34,7 +34,7 @@ fi
 
 if [ ! -f "$jar" ] || [ -n "$(find pom.xml estimator/src/main cli/src/main measure/src/main measure/pom.xml -newer "$jar" -type f 2>/dev/null | head -1)" ]; then
   echo "building $jar" >&2
-  mvn -q -o -DskipTests package -pl measure -am
+  mvn -q -DskipTests package -pl measure -am
 fi
 
 models=bench/scratch/models
