@@ -49,6 +49,7 @@ public final class Main implements Callable<Integer> {
     public static int execute(String[] args, PrintWriter out, PrintWriter err) {
         try {
             CommandLine cl = new CommandLine(new Main());
+            addOptionalCommands(cl);
             cl.setOut(out);
             cl.setErr(err);
             cl.setParameterExceptionHandler((e, a) -> {
@@ -62,6 +63,35 @@ public final class Main implements Callable<Integer> {
         } finally {
             out.flush();
             err.flush();
+        }
+    }
+
+    /**
+     * Commands that live in the optional erg-measure jar, the only one with onnxruntime: name and
+     * class. Without that jar each name stays a command that says in one line where to get it.
+     */
+    private static final String[][] OPTIONAL_COMMANDS = {
+        {"measure", "dev.erg.measure.MeasureCommand"},
+        {"host-profile", "dev.erg.measure.HostProfileCommand"},
+    };
+
+    private static void addOptionalCommands(CommandLine cl) {
+        for (String[] c : OPTIONAL_COMMANDS) {
+            Object command;
+            try {
+                command = Class.forName(c[1], false, Main.class.getClassLoader()).getDeclaredConstructor().newInstance();
+            } catch (ReflectiveOperationException | LinkageError absent) {
+                String name = c[0];
+                CommandLine.Model.CommandSpec spec = CommandLine.Model.CommandSpec.wrapWithoutInspection(
+                        (Callable<Integer>) () -> {
+                            throw new BadInputException("'erg " + name + "' runs models in onnxruntime and comes in the"
+                                    + " erg-measure jar: java -jar erg-measure.jar " + name + " ... (see docs/measure.md)");
+                        });
+                spec.parser().unmatchedArgumentsAllowed(true);
+                spec.usageMessage().description("Needs the erg-measure jar (with onnxruntime); see docs/measure.md.");
+                command = spec;
+            }
+            cl.addSubcommand(c[0], command);
         }
     }
 

@@ -1,0 +1,483 @@
+package dev.erg.calibrate;
+
+import dev.erg.calibrate.Factor.Metric;
+import dev.erg.error.BadInputException;
+import java.util.ArrayList;
+import java.util.Arrays;
+import java.util.EnumMap;
+import java.util.LinkedHashMap;
+import java.util.List;
+import java.util.Map;
+import java.util.TreeMap;
+import java.util.TreeSet;
+import org.hipparchus.exception.MathIllegalStateException;
+import org.hipparchus.linear.Array2DRowRealMatrix;
+import org.hipparchus.linear.ArrayRealVector;
+import org.hipparchus.linear.DiagonalMatrix;
+import org.hipparchus.linear.RealVector;
+import org.hipparchus.optim.nonlinear.vector.leastsquares.LeastSquaresBuilder;
+import org.hipparchus.optim.nonlinear.vector.leastsquares.LeastSquaresOptimizer;
+import org.hipparchus.optim.nonlinear.vector.leastsquares.LeastSquaresProblem;
+import org.hipparchus.optim.nonlinear.vector.leastsquares.LevenbergMarquardtOptimizer;
+import org.hipparchus.util.Pair;
+
+/**
+ * Fits a profile's correction factors to measurements.
+ *
+ * <p>The fit minimises the sum of squared log ratios of predicted to measured values, so that a
+ * layer of 20 us and a model of 20 ms weigh the same, and every factor is fitted as its logarithm,
+ * so that it stays positive. The solver is the Levenberg-Marquardt least-squares optimiser of
+ * Hipparchus. Latency is fitted first (compute efficiencies, per-layer overhead, DRAM bandwidth),
+ * then energy (the three destination scales and static power) with the calibrated latencies. A
+ * factor that no measured value depends on is kept; with fewer values than factors, only as many
+ * factors as there are values are fitted, those that explain the largest share of the prediction.
+ */
+public final class Calibrator {
+    private static final Factor[] LATENCY = {Factor.EFFICIENCY_DENSE_CONV, Factor.EFFICIENCY_GROUPED_CONV,
+        Factor.EFFICIENCY_MATMUL, Factor.EFFICIENCY_VECTOR, Factor.LAYER_OVERHEAD, Factor.DRAM_BANDWIDTH_SCALE};
+    private static final Factor[] ENERGY = {Factor.ENERGY_SCALE_COMPUTE, Factor.ENERGY_SCALE_ON_CHIP,
+        Factor.ENERGY_SCALE_DRAM, Factor.STATIC_POWER};
+    /** Fitted log-factors stay within e^-60 .. e^60 of 1 (a guard against runaway steps, far outside any real value). */
+    private static final double LOG_LIMIT = 60;
+
+    private Calibrator() {
+    }
+
+    /** One measured value and the nodes whose prediction it is compared with. */
+    private record Obs(String model, String node, Metric metric, double measured, List<NodeCost> nodes,
+                       boolean fromPower) {
+    }
+
+    /** Factor values, and which ones were fitted. */
+    private record Fit(double[] values, boolean[] fitted, Map<Factor, String> notes) {
+    }
+
+    /**
+     * Fits the factors.
+     *
+     * @param models           the predicted parts of every measured model
+     * @param files            the measurement files (their names already checked against the models)
+     * @param staticPowerWatts the profile's static power
+     * @throws BadInputException when nothing can be fitted (no usable value, every value zero)
+     */
+    public static Calibration fit(List<ModelCosts> models, List<MeasurementFile> files, double staticPowerWatts) {
+        Map<String, ModelCosts> byModel = new LinkedHashMap<>();
+        for (ModelCosts m : models) {
+            byModel.put(m.model(), m);
+        }
+        List<String> notes = new ArrayList<>();
+        List<Obs> latency = new ArrayList<>();
+        List<Measurement> energyRows = new ArrayList<>();
+        int zeros = 0;
+        int values = 0;
+        int notRun = 0;
+        String sources = String.join(", ", files.stream().map(f -> String.valueOf(f.file().getFileName())).toList());
+        for (MeasurementFile f : files) {
+            for (Measurement m : f.rows()) {
+                ModelCosts mc = byModel.get(m.model());
+                if (mc == null) {
+                    throw new BadInputException(f.file() + ":" + m.line() + ": model '" + m.model()
+                            + "' is not among the models given");
+                }
+                List<NodeCost> nodes = nodesOf(mc, m);
+                for (Double v : new Double[] {m.latencySeconds(), m.energyJoules(), m.powerWatts()}) {
+                    if (v != null) {
+                        values++;
+                        zeros += v == 0 ? 1 : 0;
+                    }
+                }
+                if (nodes.isEmpty()) {
+                    notRun++;
+                    continue;
+                }
+                if (m.latencySeconds() != null && m.latencySeconds() > 0) {
+                    latency.add(new Obs(m.model(), m.node(), Metric.LATENCY, m.latencySeconds(), nodes, false));
+                }
+                if ((m.energyJoules() != null && m.energyJoules() > 0) || (m.powerWatts() != null && m.powerWatts() > 0)) {
+                    energyRows.add(m);
+                }
+            }
+        }
+        if (values > 0 && zeros == values) {
+            throw new BadInputException("cannot calibrate: every measured value in " + sources
+                    + " is zero; a fit needs measured values above zero");
+        }
+        if (notRun > 0) {
+            notes.add(notRun + (notRun == 1 ? " row names a node" : " rows name nodes")
+                    + " that erg does not run on the device (views, folded constants): left out");
+        }
+        if (zeros > 0) {
+            notes.add(zeros + (zeros == 1 ? " measured value is" : " measured values are") + " zero: left out");
+        }
+        List<Residual> residuals = new ArrayList<>();
+        Fit lat = fitLatency(latency, notes, true);
+        List<Obs> energy = energyObs(energyRows, byModel, lat);
+        if (latency.isEmpty() && energy.isEmpty()) {
+            throw new BadInputException("cannot calibrate: no measured value in " + sources
+                    + " belongs to a node that runs on the device or to a whole model; nothing to fit");
+        }
+        Fit all = fitEnergy(energy, lat, staticPowerWatts, notes, true);
+        double[] neutral = neutral(latency, staticPowerWatts);
+        for (Obs o : concat(latency, energy)) {
+            double b = predict(o, neutral, false);
+            double a = predict(o, all.values(), all.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
+            residuals.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a));
+        }
+
+        List<Residual> heldOut = null;
+        TreeSet<String> measured = new TreeSet<>();
+        for (Obs o : concat(latency, energy)) {
+            measured.add(o.model());
+        }
+        if (measured.size() >= 3) {
+            heldOut = new ArrayList<>();
+            for (String held : measured) {
+                List<Obs> lt = latency.stream().filter(o -> !o.model().equals(held)).toList();
+                List<Obs> en = energy.stream().filter(o -> !o.model().equals(held)).toList();
+                Fit l = fitLatency(lt, new ArrayList<>(), false);
+                Fit e = fitEnergy(en, l, staticPowerWatts, new ArrayList<>(), false);
+                for (Obs o : concat(latency, energy)) {
+                    if (o.model().equals(held)) {
+                        heldOut.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), predict(o, neutral, false),
+                                predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()])));
+                    }
+                }
+            }
+        }
+        EnumMap<Factor, FactorValue> out = new EnumMap<>(Factor.class);
+        for (Factor f : Factor.values()) {
+            out.put(f, new FactorValue(f, all.values()[f.ordinal()], all.fitted()[f.ordinal()], all.notes().get(f)));
+        }
+        return new Calibration(out, residuals, heldOut, notes, files);
+    }
+
+    private static List<Obs> concat(List<Obs> a, List<Obs> b) {
+        List<Obs> out = new ArrayList<>(a);
+        out.addAll(b);
+        return out;
+    }
+
+    private static List<NodeCost> nodesOf(ModelCosts mc, Measurement m) {
+        if (m.node() == null) {
+            return mc.nodes();
+        }
+        NodeCost c = mc.byName().get(m.node());
+        return c == null ? List.of() : List.of(c);
+    }
+
+    /** Energy values: measured energy, or power times the row's latency (or the calibrated latency when the row gives none). */
+    private static List<Obs> energyObs(List<Measurement> rows, Map<String, ModelCosts> byModel, Fit lat) {
+        List<Obs> out = new ArrayList<>();
+        for (Measurement m : rows) {
+            List<NodeCost> nodes = nodesOf(byModel.get(m.model()), m);
+            if (m.energyJoules() != null && m.energyJoules() > 0) {
+                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.energyJoules(), nodes, false));
+            } else {
+                double t = m.latencySeconds() != null && m.latencySeconds() > 0 ? m.latencySeconds()
+                        : latencyOf(nodes, lat.values(), lat.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
+                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.powerWatts() * t, nodes, true));
+            }
+        }
+        return out;
+    }
+
+    // ---- the model --------------------------------------------------------------------------
+
+    /** The factors that leave the profile as it is. */
+    private static double[] neutral(List<Obs> latency, double staticPowerWatts) {
+        double[] v = new double[Factor.values().length];
+        for (Factor f : Factor.values()) {
+            v[f.ordinal()] = f.neutral;
+        }
+        v[Factor.LAYER_OVERHEAD.ordinal()] = profileOverhead(latency);
+        v[Factor.STATIC_POWER.ordinal()] = staticPowerWatts;
+        return v;
+    }
+
+    /** The profile's per-layer overhead: the median over launched nodes (0 when none). */
+    private static double profileOverhead(List<Obs> obs) {
+        List<Double> o = new ArrayList<>();
+        for (Obs x : obs) {
+            for (NodeCost n : x.nodes()) {
+                if (n.launches() > 0) {
+                    o.add(n.overheadSeconds());
+                }
+            }
+        }
+        if (o.isEmpty()) {
+            return 0;
+        }
+        o.sort(null);
+        return o.get(o.size() / 2);
+    }
+
+    static double latency(NodeCost n, double[] f, boolean overheadFitted) {
+        double c = n.computeSeconds() / f[Factor.efficiency(n.opClass()).ordinal()];
+        double d = n.dramSeconds() / f[Factor.DRAM_BANDWIDTH_SCALE.ordinal()];
+        double t = Math.max(c, Math.max(n.sramSeconds(), d));
+        return t + (overheadFitted ? f[Factor.LAYER_OVERHEAD.ordinal()] * n.launches() : n.overheadSeconds());
+    }
+
+    static double energy(NodeCost n, double[] f, double latencySeconds) {
+        return f[Factor.ENERGY_SCALE_COMPUTE.ordinal()] * n.computeJoules()
+                + f[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] * n.onChipJoules()
+                + f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules()
+                + f[Factor.STATIC_POWER.ordinal()] * latencySeconds;
+    }
+
+    private static double latencyOf(List<NodeCost> nodes, double[] f, boolean overheadFitted) {
+        double t = 0;
+        for (NodeCost n : nodes) {
+            t += latency(n, f, overheadFitted);
+        }
+        return t;
+    }
+
+    private static double predict(Obs o, double[] f, boolean overheadFitted) {
+        double s = 0;
+        for (NodeCost n : o.nodes()) {
+            double t = latency(n, f, overheadFitted);
+            s += o.metric() == Metric.LATENCY ? t : energy(n, f, t);
+        }
+        return s;
+    }
+
+    /**
+     * The prediction of {@code o} and its derivative by the logarithm of each factor, into {@code grad}.
+     */
+    private static double predictWithGradient(Obs o, double[] f, boolean overheadFitted, double[] grad) {
+        Arrays.fill(grad, 0);
+        double s = 0;
+        int ovh = Factor.LAYER_OVERHEAD.ordinal();
+        int bw = Factor.DRAM_BANDWIDTH_SCALE.ordinal();
+        for (NodeCost n : o.nodes()) {
+            int eff = Factor.efficiency(n.opClass()).ordinal();
+            double c = n.computeSeconds() / f[eff];
+            double d = n.dramSeconds() / f[bw];
+            double t;
+            if (c >= n.sramSeconds() && c >= d) {
+                t = c;
+                if (o.metric() == Metric.LATENCY) {
+                    grad[eff] -= c;
+                }
+            } else if (d >= n.sramSeconds()) {
+                t = d;
+                if (o.metric() == Metric.LATENCY) {
+                    grad[bw] -= d;
+                }
+            } else {
+                t = n.sramSeconds();
+            }
+            double over = overheadFitted ? f[ovh] * n.launches() : n.overheadSeconds();
+            t += over;
+            if (o.metric() == Metric.LATENCY) {
+                if (overheadFitted) {
+                    grad[ovh] += over;
+                }
+                s += t;
+            } else {
+                double ec = f[Factor.ENERGY_SCALE_COMPUTE.ordinal()] * n.computeJoules();
+                double em = f[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] * n.onChipJoules();
+                double ed = f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules();
+                double es = f[Factor.STATIC_POWER.ordinal()] * t;
+                grad[Factor.ENERGY_SCALE_COMPUTE.ordinal()] += ec;
+                grad[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] += em;
+                grad[Factor.ENERGY_SCALE_DRAM.ordinal()] += ed;
+                grad[Factor.STATIC_POWER.ordinal()] += es;
+                s += ec + em + ed + es;
+            }
+        }
+        return s;
+    }
+
+    // ---- the fits ---------------------------------------------------------------------------
+
+    /**
+     * A whole-model value weighs as much as all the node values of its model together (at least 1), so
+     * that the total of a model with 300 measured layers is not drowned by them; a node value weighs 1.
+     */
+    private static double[] weights(List<Obs> obs) {
+        Map<String, Integer> nodeRows = new LinkedHashMap<>();
+        for (Obs o : obs) {
+            if (o.node() != null) {
+                nodeRows.merge(o.model(), 1, Integer::sum);
+            }
+        }
+        double[] w = new double[obs.size()];
+        for (int i = 0; i < w.length; i++) {
+            Obs o = obs.get(i);
+            w[i] = o.node() != null ? 1 : Math.max(1, nodeRows.getOrDefault(o.model(), 0));
+        }
+        return w;
+    }
+
+    private static Fit fitLatency(List<Obs> obs, List<String> notes, boolean say) {
+        double[] start = neutral(obs, 0);
+        boolean[] fitted = new boolean[start.length];
+        Map<Factor, String> why = new EnumMap<>(Factor.class);
+        if (obs.isEmpty()) {
+            for (Factor f : LATENCY) {
+                why.put(f, "no latency was measured");
+            }
+            return new Fit(start, fitted, why);
+        }
+        // The overhead is fitted as an absolute time: start from the profile's, or from a small share
+        // of the measured time per layer when the profile has none.
+        if (!(start[Factor.LAYER_OVERHEAD.ordinal()] > 0)) {
+            List<Double> perLayer = new ArrayList<>();
+            for (Obs o : obs) {
+                int launches = o.nodes().stream().mapToInt(NodeCost::launches).sum();
+                perLayer.add(o.measured() / Math.max(1, launches));
+            }
+            perLayer.sort(null);
+            start[Factor.LAYER_OVERHEAD.ordinal()] = 0.05 * perLayer.get(perLayer.size() / 2);
+        }
+        return solve(obs, LATENCY, start, true, why, notes, say);
+    }
+
+    private static Fit fitEnergy(List<Obs> obs, Fit lat, double staticPowerWatts, List<String> notes, boolean say) {
+        double[] start = lat.values().clone();
+        boolean[] fitted = lat.fitted().clone();
+        Map<Factor, String> why = new EnumMap<>(lat.notes());
+        start[Factor.STATIC_POWER.ordinal()] = staticPowerWatts;
+        if (obs.isEmpty()) {
+            for (Factor f : ENERGY) {
+                why.put(f, "no energy or power was measured");
+            }
+            return new Fit(start, fitted, why);
+        }
+        boolean ovh = fitted[Factor.LAYER_OVERHEAD.ordinal()];
+        if (!(staticPowerWatts > 0)) {
+            List<Double> p = new ArrayList<>();
+            for (Obs o : obs) {
+                double t = latencyOf(o.nodes(), start, ovh);
+                if (t > 0) {
+                    p.add(o.measured() / t);
+                }
+            }
+            p.sort(null);
+            start[Factor.STATIC_POWER.ordinal()] = p.isEmpty() ? 1e-3 : 0.1 * p.get(p.size() / 2);
+        }
+        Fit e = solve(obs, ENERGY, start, ovh, why, notes, say);
+        // Keep the latency factors as the latency fit set them.
+        for (Factor f : LATENCY) {
+            e.fitted()[f.ordinal()] = fitted[f.ordinal()];
+        }
+        return e;
+    }
+
+    /**
+     * Chooses which of {@code candidates} the values can set and fits them with Levenberg-Marquardt;
+     * the others keep their start value, with a note saying why.
+     */
+    private static Fit solve(List<Obs> obs, Factor[] candidates, double[] start, boolean overheadFitted,
+                             Map<Factor, String> why, List<String> notes, boolean say) {
+        boolean[] fitted = new boolean[start.length];
+        for (int i = 0; i < start.length; i++) {
+            fitted[i] = false;
+        }
+        int ovh = Factor.LAYER_OVERHEAD.ordinal();
+        boolean latencyFit = candidates == LATENCY;
+        // Sensitivity: how much of the predictions each factor moves, at the start point.
+        double[] share = new double[start.length];
+        double[] grad = new double[start.length];
+        for (Obs o : obs) {
+            double p = predictWithGradient(o, start, latencyFit || overheadFitted, grad);
+            if (p > 0) {
+                for (int j = 0; j < grad.length; j++) {
+                    share[j] += Math.abs(grad[j]) / p;
+                }
+            }
+        }
+        List<Factor> usable = new ArrayList<>();
+        for (Factor f : candidates) {
+            if (share[f.ordinal()] > 1e-9 * obs.size()) {
+                usable.add(f);
+            } else {
+                why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
+                        : f.name().startsWith("EFFICIENCY") ? "no measured node of this class is limited by compute"
+                        : "no measured value depends on it");
+            }
+        }
+        usable.sort((a, b) -> Double.compare(share[b.ordinal()], share[a.ordinal()]));
+        if (usable.size() > obs.size()) {
+            List<Factor> dropped = usable.subList(obs.size(), usable.size());
+            List<String> keys = new ArrayList<>();
+            for (Factor f : dropped) {
+                keys.add(f.key);
+                why.put(f, "only " + obs.size() + " " + obs.get(0).metric().label + " value"
+                        + (obs.size() == 1 ? "" : "s") + " for " + usable.size() + " factors");
+            }
+            if (say) {
+                notes.add("only " + obs.size() + " " + obs.get(0).metric().label + (obs.size() == 1 ? " value" : " values")
+                        + " for " + usable.size() + " factors: fitted " + String.join(", ", usable.subList(0, obs.size())
+                        .stream().map(f -> f.key).toList()) + "; kept " + String.join(", ", keys) + " as the profile gives");
+            }
+            usable = new ArrayList<>(usable.subList(0, obs.size()));
+        }
+        double[] values = start.clone();
+        if (!usable.isEmpty()) {
+            int[] idx = usable.stream().mapToInt(Factor::ordinal).toArray();
+            double[] target = new double[obs.size()];
+            for (int i = 0; i < target.length; i++) {
+                target[i] = Math.log(obs.get(i).measured());
+            }
+            double[] theta0 = new double[idx.length];
+            for (int j = 0; j < idx.length; j++) {
+                theta0[j] = Math.log(start[idx[j]]);
+            }
+            boolean ovhOn = latencyFit || overheadFitted;
+            LeastSquaresProblem problem = new LeastSquaresBuilder()
+                    .start(theta0)
+                    .target(target)
+                    .weight(new DiagonalMatrix(weights(obs)))
+                    .model(point -> {
+                        double[] f = start.clone();
+                        for (int j = 0; j < idx.length; j++) {
+                            f[idx[j]] = Math.exp(point.getEntry(j));
+                        }
+                        double[] val = new double[obs.size()];
+                        double[][] jac = new double[obs.size()][idx.length];
+                        double[] g = new double[f.length];
+                        for (int i = 0; i < val.length; i++) {
+                            double p = predictWithGradient(obs.get(i), f, ovhOn, g);
+                            // A prediction of zero cannot be compared on a log scale: hold it at a tiny time.
+                            double safe = Math.max(p, 1e-30);
+                            val[i] = Math.log(safe);
+                            for (int j = 0; j < idx.length; j++) {
+                                jac[i][j] = g[idx[j]] / safe;
+                            }
+                        }
+                        return new Pair<RealVector, org.hipparchus.linear.RealMatrix>(
+                                new ArrayRealVector(val, false), new Array2DRowRealMatrix(jac, false));
+                    })
+                    .parameterValidator(p -> {
+                        RealVector q = p.copy();
+                        for (int j = 0; j < q.getDimension(); j++) {
+                            q.setEntry(j, Math.max(-LOG_LIMIT, Math.min(LOG_LIMIT, q.getEntry(j))));
+                        }
+                        return q;
+                    })
+                    .maxEvaluations(20_000)
+                    .maxIterations(5_000)
+                    .build();
+            LeastSquaresOptimizer.Optimum opt;
+            try {
+                opt = new LevenbergMarquardtOptimizer().optimize(problem);
+            } catch (MathIllegalStateException e) {
+                throw new BadInputException("cannot calibrate: the " + obs.get(0).metric().label
+                        + " fit did not converge on " + obs.size() + " values (" + e.getMessage() + ")");
+            }
+            RealVector theta = opt.getPoint();
+            for (int j = 0; j < idx.length; j++) {
+                values[idx[j]] = Math.exp(theta.getEntry(j));
+                fitted[idx[j]] = true;
+            }
+        }
+        if (latencyFit && !fitted[ovh]) {
+            // Not fitted: the profile's overhead applies node by node, as the estimator charges it.
+            values[ovh] = profileOverhead(obs);
+        }
+        return new Fit(values, fitted, why);
+    }
+}

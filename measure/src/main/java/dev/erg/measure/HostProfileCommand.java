@@ -1,0 +1,79 @@
+package dev.erg.measure;
+
+import dev.erg.error.BadInputException;
+import java.io.IOException;
+import java.io.PrintWriter;
+import java.nio.charset.StandardCharsets;
+import java.nio.file.Files;
+import java.nio.file.Path;
+import java.util.Locale;
+import java.util.concurrent.Callable;
+import picocli.CommandLine;
+import picocli.CommandLine.Command;
+import picocli.CommandLine.Option;
+
+/**
+ * {@code erg host-profile}: measures this machine's peak MAC rate and memory bandwidth in onnxruntime
+ * and writes them, each with its source. No onnxruntime type appears in this class.
+ */
+@Command(name = "host-profile", mixinStandardHelpOptions = true,
+        description = "Measures this machine's peak MAC rate (a large MatMul) and memory bandwidth (a large Add)"
+                + " in onnxruntime and writes the figures with how and when each was measured.")
+public final class HostProfileCommand implements Callable<Integer> {
+    @Option(names = "--out", paramLabel = "FILE", description = "Where to write the figures (YAML); printed when absent.")
+    Path out;
+
+    @Option(names = "--threads", paramLabel = "T", defaultValue = "1",
+            description = "Intra-op threads (default: ${DEFAULT-VALUE}).")
+    int threads;
+
+    @Option(names = "--runs", paramLabel = "N", defaultValue = "10", description = "Timed runs (default: ${DEFAULT-VALUE}).")
+    int runs;
+
+    @Option(names = "--warmup", paramLabel = "N", defaultValue = "3",
+            description = "Untimed runs first (default: ${DEFAULT-VALUE}).")
+    int warmups;
+
+    @Option(names = "--matmul-side", paramLabel = "N", defaultValue = "1024",
+            description = "Side of the square MatMul (default: ${DEFAULT-VALUE}).")
+    int side;
+
+    @Option(names = "--add-elements", paramLabel = "N", defaultValue = "16777216",
+            description = "Elements of each Add operand (default: ${DEFAULT-VALUE}, 64 MiB of fp32).")
+    int elements;
+
+    @CommandLine.Spec
+    CommandLine.Model.CommandSpec spec;
+
+    @Override
+    public Integer call() {
+        check(threads >= 1 && threads <= 1024, "--threads must be from 1 to 1024, not " + threads);
+        check(runs >= 1 && runs <= 10_000, "--runs must be from 1 to 10000, not " + runs);
+        check(warmups >= 0 && warmups <= 10_000, "--warmup must be from 0 to 10000, not " + warmups);
+        check(side >= 16 && side <= 8192, "--matmul-side must be from 16 to 8192, not " + side);
+        check(elements >= 1024 && elements <= (1 << 28), "--add-elements must be from 1024 to 268435456, not " + elements);
+        HostMeasurements m = HostBench.run(threads, warmups, runs, side, elements);
+        PrintWriter pw = spec.commandLine().getOut();
+        pw.printf(Locale.ROOT, "peak %.2f GMAC/s (fp32 MatMul), memory %.2f GB/s (fp32 Add), %d %s on %s%n",
+                m.peakMacsPerSecond() / 1e9, m.memoryBytesPerSecond() / 1e9, threads,
+                threads == 1 ? "thread" : "threads", m.processor());
+        if (out == null) {
+            pw.print(m.toYaml());
+        } else {
+            try {
+                Files.writeString(out, m.toYaml(), StandardCharsets.UTF_8);
+            } catch (IOException e) {
+                throw new BadInputException(out + ": cannot write the host figures (" + e.getMessage() + ")");
+            }
+            pw.println("host figures written to " + out);
+        }
+        pw.flush();
+        return 0;
+    }
+
+    private void check(boolean ok, String message) {
+        if (!ok) {
+            throw new CommandLine.ParameterException(spec.commandLine(), message);
+        }
+    }
+}

@@ -1,0 +1,81 @@
+package dev.erg.measure;
+
+import com.google.protobuf.CodedOutputStream;
+import java.io.ByteArrayOutputStream;
+import java.io.IOException;
+import java.io.UncheckedIOException;
+
+/**
+ * A one-node ONNX model with fp32 inputs and output, written with the field numbers of the ONNX
+ * standard (onnx.proto: ModelProto, GraphProto, NodeProto, ValueInfoProto, TypeProto,
+ * TensorShapeProto, OperatorSetIdProto). Used by the host microbenchmarks; no weights.
+ */
+final class TinyModel {
+    private static final int FLOAT = 1;
+
+    private TinyModel() {
+    }
+
+    /**
+     * The bytes of a model running {@code op} on inputs {@code a} and {@code b} of the given dims, with
+     * one output {@code y} of {@code outDims}, at opset 13.
+     */
+    static byte[] binary(String op, long[] aDims, long[] bDims, long[] outDims) {
+        byte[] node = msg(o -> {
+            o.writeString(1, "a");
+            o.writeString(1, "b");
+            o.writeString(2, "y");
+            o.writeString(3, "bench");
+            o.writeString(4, op);
+        });
+        byte[] graph = msg(o -> {
+            o.writeByteArray(1, node);
+            o.writeString(2, "host-bench");
+            o.writeByteArray(11, valueInfo("a", aDims));
+            o.writeByteArray(11, valueInfo("b", bDims));
+            o.writeByteArray(12, valueInfo("y", outDims));
+        });
+        byte[] opset = msg(o -> {
+            o.writeString(1, "");
+            o.writeInt64(2, 13);
+        });
+        return msg(o -> {
+            o.writeInt64(1, 7);
+            o.writeByteArray(7, graph);
+            o.writeByteArray(8, opset);
+        });
+    }
+
+    private static byte[] valueInfo(String name, long[] dims) {
+        byte[] shape = msg(o -> {
+            for (long d : dims) {
+                o.writeByteArray(1, msg(x -> x.writeInt64(1, d)));
+            }
+        });
+        byte[] tensor = msg(o -> {
+            o.writeInt32(1, FLOAT);
+            o.writeByteArray(2, shape);
+        });
+        byte[] type = msg(o -> o.writeByteArray(1, tensor));
+        return msg(o -> {
+            o.writeString(1, name);
+            o.writeByteArray(2, type);
+        });
+    }
+
+    private interface Body {
+        void write(CodedOutputStream o) throws IOException;
+    }
+
+    private static byte[] msg(Body body) {
+        try {
+            ByteArrayOutputStream bytes = new ByteArrayOutputStream();
+            CodedOutputStream o = CodedOutputStream.newInstance(bytes);
+            body.write(o);
+            o.flush();
+            return bytes.toByteArray();
+        } catch (IOException e) {
+            throw new UncheckedIOException(e);
+        }
+    }
+}
