@@ -99,7 +99,7 @@ public final class Main implements Callable<Integer> {
     static int failure(Throwable e, PrintWriter err) {
         if (e instanceof UnboundDimException u) {
             err.println("erg: " + oneLine(e.getMessage()) + (u.dim() != null ? "; bind it with --dim " + u.dim() + "=N"
-                    : "; bind the whole shape with --shape " + u.input() + "=" + u.shapeExample()));
+                    : "; bind it with --shape " + u.input() + "=" + u.shapeExample()));
             return BAD_INPUT;
         }
         if (e instanceof BadInputException) {

@@ -148,7 +148,7 @@ final class InputShapes {
 
     /** An example shape for the message: the declared dims, an unknown one shown as N. */
     private static String example(ValueDef in) {
-        StringBuilder b = new StringBuilder(in.name()).append('=');
+        StringBuilder b = new StringBuilder();
         for (int k = 0; k < in.dims().size(); k++) {
             ValueDef.Dim d = in.dims().get(k);
             b.append(k == 0 ? "" : "x").append(d.isFixed() ? String.valueOf(d.value()) : "N");

@@ -45,9 +45,12 @@ class InputBindingsTest {
     void anonymousDimNamesInputAxisAndHowToBindIt() {
         Path f = vad();
         BadInputException e = assertThrows(BadInputException.class, () -> Analyzer.analyze(f, Map.of()));
-        assertEquals(f + ": graph input 'input' has axis 0 of [?, ?] with neither a value nor a name; bind the whole"
-                + " shape (CLI: --shape input=...; Maven: <shapes><input>...</input></shapes>), e.g. input=NxN",
-                e.getMessage());
+        assertEquals(f + ": graph input 'input' has axis 0 of [?, ?] with neither a value nor a name; its whole"
+                + " shape must be bound", e.getMessage());
+        UnboundDimException u = (UnboundDimException) e;
+        assertEquals("input", u.input(), "the front ends' hint names the input");
+        assertEquals(null, u.dim(), "no dim name to bind");
+        assertEquals("NxN", u.shapeExample(), "a shape of the declared rank");
     }
 
     @Test
@@ -144,8 +147,8 @@ class InputBindingsTest {
         Path f = dir.resolve("noshape.onnx");
         new OnnxWriter.Model(13, g).write(f);
         BadInputException e = assertThrows(BadInputException.class, () -> Analyzer.analyze(f, Map.of()));
-        assertEquals(f + ": graph input 'x' declares no shape; bind it (CLI: --shape x=1x...; Maven:"
-                + " <shapes><x>1x...</x></shapes>)", e.getMessage());
+        assertEquals(f + ": graph input 'x' declares no shape", e.getMessage());
+        assertEquals("x", ((UnboundDimException) e).input());
         ModelWorkload w = Analyzer.analyze(f, InputBindings.parse(Map.of(), Map.of("x", "1x576"), Map.of(), "test"),
                 AnalysisOptions.DEFAULTS);
         assertEquals(5760, w.macs());

@@ -88,7 +88,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
         } catch (UnboundDimException e) {
             throw new MojoExecutionException(e.getMessage() + (e.dim() != null
                     ? "; bind it with <dimensions><" + e.dim() + ">N</" + e.dim() + "></dimensions> in the <model>"
-                    : "; bind the whole shape with <shapes><" + e.input() + ">" + e.shapeExample() + "</"
+                    : "; bind it with <shapes><" + e.input() + ">" + e.shapeExample() + "</"
                             + e.input() + "></shapes> in the <model>"), e);
         } catch (BadInputException e) {
             throw new MojoExecutionException(e.getMessage(), e);
