@@ -17,9 +17,7 @@ import picocli.CommandLine.Command;
  */
 @Command(name = "erg", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node, estimates its"
-                + " energy and latency on a device profile, and checks it against a budget.",
-        subcommands = {AnalyzeCommand.class, EstimateCommand.class, CheckCommand.class,
-                CommandLine.HelpCommand.class})
+                + " energy and latency on a device profile, and checks it against a budget.")
 public final class Main implements Callable<Integer> {
     public static final int OK = 0;
     /** A budget or growth limit is broken. */
@@ -47,7 +45,7 @@ public final class Main implements Callable<Integer> {
     /** Runs {@code erg} with {@code args}, printing to {@code out} and {@code err}; returns the exit code. */
     public static int execute(String[] args, PrintWriter out, PrintWriter err) {
         try {
-            CommandLine cl = new CommandLine(new Main());
+            CommandLine cl = withCommands(new CommandLine(new Main()), args.length > 0 ? args[0] : "");
             cl.setOut(out);
             cl.setErr(err);
             cl.setParameterExceptionHandler((e, a) -> {
@@ -62,6 +60,22 @@ public final class Main implements Callable<Integer> {
             out.flush();
             err.flush();
         }
+    }
+
+    /**
+     * Adds the subcommands to {@code cl}: only the one {@code first} names, or all of them (for help,
+     * the version, a missing or an unknown command). picocli reads a command's options by reflection
+     * when it is added, which is the largest part of a short run's start-up (docs/benchmark.md).
+     */
+    static CommandLine withCommands(CommandLine cl, String first) {
+        switch (first) {
+            case "analyze" -> cl.addSubcommand(new AnalyzeCommand());
+            case "estimate" -> cl.addSubcommand(new EstimateCommand());
+            case "check" -> cl.addSubcommand(new CheckCommand());
+            default -> cl.addSubcommand(new AnalyzeCommand()).addSubcommand(new EstimateCommand())
+                    .addSubcommand(new CheckCommand()).addSubcommand(new CommandLine.HelpCommand());
+        }
+        return cl;
     }
 
     /** Prints the one line for {@code e} and returns its exit code. */
