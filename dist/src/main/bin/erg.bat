@@ -18,7 +18,7 @@ if defined JAVA_HOME (
   set "JAVACMD=java.exe"
 )
 set "CP={{erg.classpath.bat}}"
-set "FLAGS=-XX:TieredStopAtLevel=1 -XX:+UseSerialGC -XX:-UsePerfData"
+set "FLAGS=-XX:TieredStopAtLevel=1 -XX:+UseParallelGC -XX:-UsePerfData"
 
 if "%ERG_CDS%"=="0" goto run
 if not exist "%LIB%\erg.classlist" goto run

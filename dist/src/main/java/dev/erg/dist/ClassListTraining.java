@@ -30,7 +30,7 @@ import java.util.stream.Stream;
  */
 public final class ClassListTraining {
     /** The JVM flags the launcher starts erg with (bin/erg): the training JVMs run with the same. */
-    static final List<String> LAUNCHER_FLAGS = List.of("-XX:TieredStopAtLevel=1", "-XX:+UseSerialGC", "-XX:-UsePerfData");
+    static final List<String> LAUNCHER_FLAGS = List.of("-XX:TieredStopAtLevel=1", "-XX:+UseParallelGC", "-XX:-UsePerfData");
     private static final long TIMEOUT_SECONDS = 120;
 
     private ClassListTraining() {
