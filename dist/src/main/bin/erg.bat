@@ -12,11 +12,8 @@ rem again. If it cannot be made or used, erg starts without it (the JVM falls ba
 setlocal
 set "ERG_HOME=%~dp0.."
 set "LIB=%ERG_HOME%\lib"
-if defined JAVA_HOME (
-  set "JAVACMD=%JAVA_HOME%\bin\java.exe"
-) else (
-  set "JAVACMD=java.exe"
-)
+set "JAVACMD=java.exe"
+if defined JAVA_HOME set "JAVACMD=%JAVA_HOME%\bin\java.exe"
 set "CP={{erg.classpath.bat}}"
 set "FLAGS=-XX:TieredStopAtLevel=1 -XX:+UseParallelGC -XX:-UsePerfData"
 
@@ -30,7 +27,8 @@ move /y "%LIB%\erg.jsa.tmp" "%LIB%\erg.jsa" >nul 2>&1
 if exist "%LIB%\erg.jsa.tmp" del /q "%LIB%\erg.jsa.tmp" >nul 2>&1
 if not exist "%LIB%\erg.jsa" goto run
 :usecds
-set "FLAGS=%FLAGS% -XX:SharedArchiveFile=%LIB%\erg.jsa -Xshare:auto -Xlog:cds=off -Xlog:cds+dynamic=off"
+"%JAVACMD%" %FLAGS% -Xshare:auto -Xlog:cds=off -Xlog:cds+dynamic=off "-XX:SharedArchiveFile=%LIB%\erg.jsa" %ERG_JAVA_OPTS% -cp "%CP%" dev.erg.cli.Main %*
+exit /b %ERRORLEVEL%
 
 :run
 "%JAVACMD%" %FLAGS% %ERG_JAVA_OPTS% -cp "%CP%" dev.erg.cli.Main %*
