@@ -6,8 +6,10 @@ import java.util.ArrayList;
 import java.util.List;
 
 /**
- * Writes synthetic transformer-like models of a given node count for the scale benchmark
- * (bench/scale.sh). Each encoder block is 42 nodes, the way exporters write attention at opset 17:
+ * Writes synthetic models of a given node count for the scale benchmark (bench/scale.sh).
+ *
+ * <p>Transformer-like (files scale_N.onnx): a chain of encoder blocks of 46 nodes each, the way
+ * exporters write attention at opset 17:
  *
  * <pre>
  * LayerNormalization
@@ -16,20 +18,27 @@ import java.util.List;
  * MatMul(Q, K^T) -> Div -> Add(mask) -> Softmax -> MatMul(., V) -> Transpose
  * Shape -> Gather(0), Gather(1) -> Unsqueeze x2 -> Concat(b, s, d) -> Reshape    (merge heads)
  * MatMul -> Add -> Add(residual)
- * LayerNormalization -> MatMul -> Add -> Gelu -> MatMul -> Add -> Add(residual)
+ * LayerNormalization -> MatMul -> Add -> GELU -> MatMul -> Add -> Add(residual)
+ * GELU as exporters write it below opset 20: Div(sqrt 2) -> Erf -> Add(1) -> Mul(x) -> Mul(0.5)
  * </pre>
- *
- * Blocks are chained; Relu nodes after the last block bring the count to exactly the one asked for.
- * Every block has its own weights, stored as external data (the data file is not written: erg never
- * opens it), so that a 100k-node model has ~16k initializers and stays a few MB on disk.
  *
  * With --if (before the counts), each block's activation sits in an If with a constant condition
  * (files scale_if_N.onnx): a graph with one control-flow node per block.
  *
- * Usage: java -cp erg.jar:classes ScaleModels OUT_DIR [--if] NODES...
+ * <p>Plain chain (with --chain, files chain_N.onnx): x [batch, 64] through blocks of MatMul -> Add ->
+ * Relu, 3 nodes each: no shape arithmetic, no fan-out.
+ *
+ * <p>Blocks are chained; Relu nodes after the last block bring the count to exactly the one asked for.
+ * Every block has its own weights, stored as external data (the data file is not written: erg never
+ * opens it, and the python peer is told not to load it), so that a 100k-node model stays a few MB.
+ * Opset 17, the newest that Debian's python3-onnx (1.12) knows, so that the peer infers every node.
+ *
+ * Usage: java -cp erg.jar:classes ScaleModels OUT_DIR [--if | --chain] NODES...
  */
 public final class ScaleModels {
-    static final int NODES_PER_BLOCK = 42;
+    /** Nodes per encoder block; 42 in the If variant, where the 5 GELU nodes are one If. */
+    static final int NODES_PER_BLOCK = 46;
+    static final int CHAIN_BLOCK = 3;
     static final long BATCH = 1;
     static final long SEQ = 32;
     static final long D = 64;
@@ -62,8 +71,12 @@ public final class ScaleModels {
                 .longs("heads", HEADS, D / HEADS)
                 .longs("dmodel", D)
                 .initializer(new OnnxWriter.Tensor("scale", ElemType.FLOAT).floats((float) Math.sqrt(D / HEADS)))
+                .initializer(new OnnxWriter.Tensor("sqrt2", ElemType.FLOAT).floats((float) Math.sqrt(2)))
+                .initializer(new OnnxWriter.Tensor("one", ElemType.FLOAT).floats(1f))
+                .initializer(new OnnxWriter.Tensor("half", ElemType.FLOAT).floats(0.5f))
                 .initializer(new OnnxWriter.Tensor("use_gelu", ElemType.BOOL).raw(new byte[] {1}));
-        int blocks = nodes / NODES_PER_BLOCK;
+        int perBlock = withIf ? NODES_PER_BLOCK - 4 : NODES_PER_BLOCK;
+        int blocks = nodes / perBlock;
         String x = "x";
         int count = 0;
         for (int b = 0; b < blocks; b++) {
@@ -130,8 +143,7 @@ public final class ScaleModels {
             if (withIf) {
                 // The activation inside an If whose condition is a constant (as some exporters write
                 // a config switch): the taken branch reads f1 from the enclosing scope.
-                OnnxWriter.Graph then = new OnnxWriter.Graph(p + "then")
-                        .node("Gelu", p + "gelu", List.of(p + "f1"), List.of(p + "f2t"))
+                OnnxWriter.Graph then = gelu(new OnnxWriter.Graph(p + "then"), p, p + "f1", p + "f2t")
                         .output(p + "f2t", ElemType.FLOAT);
                 OnnxWriter.Graph other = new OnnxWriter.Graph(p + "else")
                         .node("Relu", p + "relu", List.of(p + "f1"), List.of(p + "f2e"))
@@ -139,7 +151,8 @@ public final class ScaleModels {
                 g.node("If", p + "act", List.of("use_gelu"), List.of(p + "f2"), OnnxWriter.graph("then_branch", then),
                         OnnxWriter.graph("else_branch", other));
             } else {
-                g.node("Gelu", p + "gelu", List.of(p + "f1"), List.of(p + "f2"));
+                gelu(g, p, p + "f1", p + "f2");
+                count += 4;
             }
             g.node("MatMul", p + "ff2/mm", List.of(p + "f2", p + "ff2.w"), List.of(p + "f3"));
             g.node("Add", p + "ff2/add", List.of(p + "f3", p + "ff2.b"), List.of(p + "f4"));
@@ -147,10 +160,40 @@ public final class ScaleModels {
             count += 7;
             x = p + "y";
         }
-        if (count != blocks * NODES_PER_BLOCK) {
-            throw new IllegalStateException("a block is " + (count / Math.max(blocks, 1)) + " nodes, not " + NODES_PER_BLOCK);
+        if (count != blocks * perBlock) {
+            throw new IllegalStateException("a block is " + (count / Math.max(blocks, 1)) + " nodes, not " + perBlock);
         }
         for (int i = 0; count < nodes; i++, count++) {
+            g.node("Relu", "tail/relu" + i, List.of(x), List.of("tail/r" + i));
+            x = "tail/r" + i;
+        }
+        return g.output(x, ElemType.FLOAT);
+    }
+
+    /** GELU in its exact form, as exporters write it below opset 20: x * 0.5 * (1 + erf(x / sqrt 2)). */
+    static OnnxWriter.Graph gelu(OnnxWriter.Graph g, String p, String x, String y) {
+        return g.node("Div", p + "gelu/div", List.of(x, "sqrt2"), List.of(p + "g0"))
+                .node("Erf", p + "gelu/erf", List.of(p + "g0"), List.of(p + "g1"))
+                .node("Add", p + "gelu/add", List.of(p + "g1", "one"), List.of(p + "g2"))
+                .node("Mul", p + "gelu/mul", List.of(x, p + "g2"), List.of(p + "g3"))
+                .node("Mul", p + "gelu/half", List.of(p + "g3", "half"), List.of(y));
+    }
+
+    static OnnxWriter.Graph chain(int nodes) {
+        offset = 0;
+        OnnxWriter.Graph g = new OnnxWriter.Graph("chain_" + nodes).inputDims("x", ElemType.FLOAT, "batch", D);
+        String x = "x";
+        int blocks = nodes / CHAIN_BLOCK;
+        for (int b = 0; b < blocks; b++) {
+            String p = "c" + b + "/";
+            ext(g, p + "w", D, D);
+            ext(g, p + "b", D);
+            g.node("MatMul", p + "mm", List.of(x, p + "w"), List.of(p + "m"));
+            g.node("Add", p + "add", List.of(p + "m", p + "b"), List.of(p + "a"));
+            g.node("Relu", p + "relu", List.of(p + "a"), List.of(p + "y"));
+            x = p + "y";
+        }
+        for (int i = 0; i < nodes - blocks * CHAIN_BLOCK; i++) {
             g.node("Relu", "tail/relu" + i, List.of(x), List.of("tail/r" + i));
             x = "tail/r" + i;
         }
@@ -160,16 +203,16 @@ public final class ScaleModels {
     public static void main(String[] args) throws Exception {
         Path out = Path.of(args.length > 0 ? args[0] : "bench/scratch");
         Files.createDirectories(out);
-        boolean withIf = false;
+        String kind = "scale";
         for (int i = 1; i < args.length; i++) {
-            if (args[i].equals("--if")) {
-                withIf = true;
+            if (args[i].equals("--if") || args[i].equals("--chain")) {
+                kind = args[i].equals("--if") ? "scale_if" : "chain";
                 continue;
             }
             int n = Integer.parseInt(args[i]);
-            Path f = out.resolve((withIf ? "scale_if_" : "scale_") + n + ".onnx");
-            // Opset 20: LayerNormalization (17) and Gelu (20) are standard operators there.
-            new OnnxWriter.Model(20, model(n, withIf)).write(f);
+            Path f = out.resolve(kind + "_" + n + ".onnx");
+            // Opset 17: LayerNormalization is a standard operator there.
+            new OnnxWriter.Model(17, kind.equals("chain") ? chain(n) : model(n, kind.equals("scale_if"))).write(f);
             System.out.println("wrote " + f + " (" + n + " nodes, " + Files.size(f) + " bytes)");
         }
     }

@@ -18,9 +18,7 @@ import picocli.CommandLine.Command;
  */
 @Command(name = "erg", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node, estimates its"
-                + " energy and latency on a device profile, and checks it against a budget.",
-        subcommands = {AnalyzeCommand.class, EstimateCommand.class, CheckCommand.class,
-                CommandLine.HelpCommand.class})
+                + " energy and latency on a device profile, and checks it against a budget.")
 public final class Main implements Callable<Integer> {
     public static final int OK = 0;
     /** A budget, growth or policy limit is broken. */
@@ -48,8 +46,7 @@ public final class Main implements Callable<Integer> {
     /** Runs {@code erg} with {@code args}, printing to {@code out} and {@code err}; returns the exit code. */
     public static int execute(String[] args, PrintWriter out, PrintWriter err) {
         try {
-            CommandLine cl = new CommandLine(new Main());
-            addOptionalCommands(cl);
+            CommandLine cl = withCommands(new CommandLine(new Main()), args.length > 0 ? args[0] : "");
             cl.setOut(out);
             cl.setErr(err);
             cl.setParameterExceptionHandler((e, a) -> {
@@ -67,6 +64,27 @@ public final class Main implements Callable<Integer> {
     }
 
     /**
+     * Adds the subcommands to {@code cl}: only the one {@code first} names, or all of them (for help,
+     * the version, a missing or an unknown command). picocli reads a command's options by reflection
+     * when it is added, which is the largest part of a short run's start-up (docs/benchmark.md).
+     */
+    static CommandLine withCommands(CommandLine cl, String first) {
+        switch (first) {
+            case "analyze" -> cl.addSubcommand(new AnalyzeCommand());
+            case "estimate" -> cl.addSubcommand(new EstimateCommand());
+            case "check" -> cl.addSubcommand(new CheckCommand());
+            case "measure", "host-profile" -> addOptionalCommands(cl, first);
+            default -> {
+                cl.addSubcommand(new AnalyzeCommand()).addSubcommand(new EstimateCommand())
+                        .addSubcommand(new CheckCommand());
+                addOptionalCommands(cl, null);
+                cl.addSubcommand(new CommandLine.HelpCommand());
+            }
+        }
+        return cl;
+    }
+
+    /**
      * Commands that live in the optional erg-measure jar, the only one with onnxruntime: name and
      * class. Without that jar each name stays a command that says in one line where to get it.
      */
@@ -75,8 +93,12 @@ public final class Main implements Callable<Integer> {
         {"host-profile", "dev.erg.measure.HostProfileCommand"},
     };
 
-    private static void addOptionalCommands(CommandLine cl) {
+    /** Adds the optional commands: the one named {@code only}, or all of them when it is null. */
+    private static void addOptionalCommands(CommandLine cl, String only) {
         for (String[] c : OPTIONAL_COMMANDS) {
+            if (only != null && !only.equals(c[0])) {
+                continue;
+            }
             Object command;
             try {
                 command = Class.forName(c[1], false, Main.class.getClassLoader()).getDeclaredConstructor().newInstance();
