@@ -147,6 +147,11 @@ public final class Gate {
                                    Double maxGrowthPercent) {
         String who = model + " on " + device;
         List<Check> checks = new ArrayList<>();
+        if (!e.energyKnown() && (budget.maxPowerMw() != null || budget.maxEnergyPerFrameUj() != null)) {
+            throw new dev.erg.error.BadInputException(who + ": the device profile gives no energies, so a "
+                    + (budget.maxPowerMw() != null ? "power" : "energy-per-frame") + " budget cannot be checked on it "
+                    + "(leave the limit out for this device, or use a profile with energies)");
+        }
         double fps = budget.targetFps() != null ? budget.targetFps() : e.maxFps();
         if (budget.targetFps() != null) {
             double max = e.maxFps();
@@ -204,8 +209,11 @@ public final class Gate {
         if (base != null && maxGrowthPercent != null) {
             growth(checks, who, Metric.MACS, e.workload().macs(), base.macs(), maxGrowthPercent, diff,
                     d -> d.macsDelta(), "MACs");
-            growth(checks, who, Metric.ENERGY_PER_FRAME, e.energyPerFrameJoules() * 1e6,
-                    base.energyPerFrameJoules() * 1e6, maxGrowthPercent, diff, d -> d.energyDeltaJoules() * 1e6, "µJ");
+            if (e.energyKnown() && Double.isFinite(base.energyPerFrameJoules())) {
+                growth(checks, who, Metric.ENERGY_PER_FRAME, e.energyPerFrameJoules() * 1e6,
+                        base.energyPerFrameJoules() * 1e6, maxGrowthPercent, diff, d -> d.energyDeltaJoules() * 1e6,
+                        "µJ");
+            }
             growth(checks, who, Metric.LATENCY, e.latencySeconds() * 1e3, base.latencySeconds() * 1e3,
                     maxGrowthPercent, diff, d -> d.latencyDeltaSeconds() * 1e3, "ms");
             growth(checks, who, Metric.WEIGHTS, e.weightBytes() / 1024.0, base.weightBytes() / 1024.0,

@@ -27,6 +27,9 @@ final class EngineReader extends ProfileFields {
             "weight-bits", "rows-active", "input-bits-per-cycle", "row-drive-energy-fj", "column-energy-fj",
             "conversion-energy-fj", "converter-bits", "cell-write-energy-fj", "shift-add-energy-fj",
             "write-cycles-per-row", "accumulator-bits", "layer-overhead-cycles");
+    static final List<String> CPU_KEYS = List.of("id", "kind", "cores", "macs-per-cycle-per-core",
+            "ops-per-cycle-per-core", "mac-energy-fj", "mac-energy-pj", "op-energy-fj", "op-energy-pj",
+            "multiply-fraction", "layer-overhead-cycles");
     /** Every engine key of any kind, to tell "wrong kind" from "unknown". */
     private static final Set<String> ANY_ENGINE_KEYS;
 
@@ -35,10 +38,13 @@ final class EngineReader extends ProfileFields {
         all.addAll(VECTOR_KEYS);
         all.addAll(ANALOG_KEYS);
         all.addAll(MACRO_KEYS);
+        all.addAll(CPU_KEYS);
         ANY_ENGINE_KEYS = Collections.unmodifiableSet(all);
     }
 
-    static final String KINDS = "mac-array, vector, analog-sum-array, in-memory-macro";
+    static final String KINDS = "mac-array, vector, analog-sum-array, in-memory-macro, cpu";
+    /** Upper bound for cores: far above any real processor. */
+    static final int MAX_CORES = 4096;
     /** Upper bound for rows, columns and lanes: far above any real array, far below overflow. */
     static final int MAX_UNITS_SIDE = 65536;
 
@@ -78,6 +84,8 @@ final class EngineReader extends ProfileFields {
                 out.add(analog(o, id));
             } else if (kind.equals(Engine.Kind.IN_MEMORY_MACRO.key)) {
                 out.add(macro(o, id));
+            } else if (kind.equals(Engine.Kind.CPU.key)) {
+                out.add(cpu(o, id));
             } else {
                 throw fail(kindEntry.value.line, o.sub("kind"), "unknown kind \"" + clip(kind) + "\" (known: " + KINDS
                         + ")");
@@ -169,6 +177,27 @@ final class EngineReader extends ProfileFields {
                 write, shift, writeCycles);
         return Engine.of(id, Engine.Kind.IN_MEMORY_MACRO, rows, columns, 0, Dataflow.WEIGHT_STATIONARY, Map.of(), 1,
                 accumulatorBits(o), overhead(o, 0), null, null, m);
+    }
+
+    private Engine cpu(Obj o, String id) {
+        o.checkKeys(CPU_KEYS, ANY_ENGINE_KEYS, "by a cpu engine");
+        String needs = "a cpu needs cores and macs-per-cycle-per-core";
+        int cores = (int) whole(o, requireEntry(o, "cores", needs), 1, MAX_CORES);
+        Map<String, Double> macs = rateTable(o, requireEntry(o, "macs-per-cycle-per-core", needs));
+        Map<String, Double> ops = o.get("ops-per-cycle-per-core") != null
+                ? rateTable(o, o.get("ops-per-cycle-per-core")) : Map.of();
+        Entry mac = oneOf(o, "mac-energy-fj", "mac-energy-pj", false);
+        Entry op = oneOf(o, "op-energy-fj", "op-energy-pj", false);
+        if ((mac == null) != (op == null)) {
+            Entry given = mac != null ? mac : op;
+            throw fail(given.line, o.sub(mac == null ? "mac-energy-fj" : "op-energy-fj"), "missing (a cpu gives "
+                    + "mac-energy and op-energy together, or neither when its energy is unknown)");
+        }
+        Map<String, Double> macEnergy = mac != null ? energyTable(o, "mac-energy") : Map.of();
+        Map<String, Double> opEnergy = op != null ? energyTable(o, "op-energy") : Map.of();
+        double mulFraction = o.get("multiply-fraction") != null
+                ? fraction(o, o.get("multiply-fraction")) : Engine.DEFAULT_MAC_MULTIPLY_FRACTION;
+        return Engine.cpu(id, new Engine.Cpu(cores, macs, ops, opEnergy), macEnergy, mulFraction, overhead(o, 0));
     }
 
     private int accumulatorBits(Obj o) {

@@ -53,6 +53,8 @@ abstract class ProfileFields {
         UNIT_STEMS.put("write-energy", List.of("write-energy-fj-per-byte", "write-energy-pj-per-byte"));
         UNIT_STEMS.put("bandwidth", List.of("bytes-per-cycle", "gbytes-per-second"));
         UNIT_STEMS.put("multiply-energy", List.of("multiply-energy-fj", "multiply-energy-pj"));
+        UNIT_STEMS.put("macs-per-cycle", List.of("macs-per-cycle-per-core"));
+        UNIT_STEMS.put("ops-per-cycle", List.of("ops-per-cycle-per-core"));
         for (String stem : List.of("xnor-energy", "popcount-energy", "accumulation-energy", "conversion-energy",
                 "partial-add-energy", "row-drive-energy", "column-energy", "cell-write-energy", "shift-add-energy")) {
             UNIT_STEMS.put(stem, List.of(stem + "-fj"));
@@ -148,6 +150,27 @@ abstract class ProfileFields {
         return out;
     }
 
+
+    /** A precision -> rate table (MACs or ops per cycle), every value greater than 0. */
+    Map<String, Double> rateTable(Obj o, Entry e) {
+        String path = o.sub(e.key);
+        if (e.value.type != Type.MAP) {
+            throw fail(e.value.line, path, "must be a mapping of precision to a rate, e.g. { fp32: 16, int8: 64 } (got "
+                    + e.value.describe() + ")");
+        }
+        if (e.value.map.isEmpty()) {
+            throw fail(e.value.line, path, "lists no precision; give at least one, e.g. { fp32: 16 }");
+        }
+        Obj table = new Obj(e.value, path);
+        Map<String, Double> out = new LinkedHashMap<>();
+        for (Entry p : e.value.map.values()) {
+            if (!Precisions.isLabel(p.key, PRECISIONS)) {
+                throw fail(p.line, table.sub(p.key), "unknown precision label (known: " + KNOWN_LABELS + ")");
+            }
+            out.put(p.key, positive(table, p));
+        }
+        return out;
+    }
 
     // ---- scalars ----
 

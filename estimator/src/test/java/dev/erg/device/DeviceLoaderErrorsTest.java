@@ -121,7 +121,7 @@ class DeviceLoaderErrorsTest {
             Arguments.of("unknown dataflow", replace(8, "    dataflow: row-stationary"),
                     "feeder.yaml:8: engines[0].dataflow: unknown dataflow \"row-stationary\" (known: weight-stationary, output-stationary, no-reuse)"),
             Arguments.of("unknown kind", replace(11, "    kind: gpu"),
-                    "feeder.yaml:11: engines[1].kind: unknown kind \"gpu\" (known: mac-array, vector, analog-sum-array, in-memory-macro)"),
+                    "feeder.yaml:11: engines[1].kind: unknown kind \"gpu\" (known: mac-array, vector, analog-sum-array, in-memory-macro, cpu)"),
             Arguments.of("unknown precision", replace(9, "    mac-energy-fj: { int8: 150, int99: 80 }"),
                     "feeder.yaml:9: engines[0].mac-energy-fj.int99: unknown precision label (known: bf16, fp16, fp32, fp4, fp64, fp8e4m3, fp8e4m3fnuz, fp8e5m2, fp8e5m2fnuz, int16, int32, int4, int64, int8, uint16, uint32, uint4, uint64, uint8, int1 to int64, uint1 to uint64, or a weight/activation pair such as w4a8)"),
             Arguments.of("unknown deploy precision", insert(2, "deploy-precision: int99"),
@@ -135,11 +135,11 @@ class DeviceLoaderErrorsTest {
             Arguments.of("missing energy", replace(9),
                     "feeder.yaml:4: engines[0].mac-energy-fj: missing (give mac-energy-fj or mac-energy-pj)"),
             Arguments.of("missing sram", delete(15, 18),
-                    "feeder.yaml:15: memories: no sram level (a profile needs sram and dram; registers are optional)"),
+                    "feeder.yaml:15: memories: no sram level (a profile needs sram and dram, or cache levels and dram; registers are optional)"),
             Arguments.of("second sram", replace(19, "  - id: sram2", "    level: sram", "    capacity-kib: 1"),
                     "feeder.yaml:19: memories[1]: a second sram level (the first is memories[0] on line 15)"),
             Arguments.of("level unknown", replace(19, "  - id: offchip"),
-                    "feeder.yaml:19: memories[1].level: missing (the id \"offchip\" names no level; add level: registers, sram or dram)"),
+                    "feeder.yaml:19: memories[1].level: missing (the id \"offchip\" names no level; add level: registers, sram, cache or dram)"),
             Arguments.of("capacity on dram", insert(19, "    capacity-kib: 8192"),
                     "feeder.yaml:20: memories[1].capacity-kib: not used for a dram level (known: id, level, read-energy-fj-per-byte, read-energy-pj-per-byte, write-energy-fj-per-byte, write-energy-pj-per-byte, bytes-per-cycle, gbytes-per-second)"),
             Arguments.of("vector key on mac", insert(9, "    lanes: 4"),
@@ -191,7 +191,7 @@ class DeviceLoaderErrorsTest {
             Arguments.of("unknown root key", insert(2, "clock-ghz: 0.2"),
                     "feeder.yaml:3: clock-ghz: unknown unit; write clock-mhz"),
             Arguments.of("bad level", insert(19, "    level: l3"),
-                    "feeder.yaml:20: memories[1].level: unknown level \"l3\" (known: registers, sram, dram)"),
+                    "feeder.yaml:20: memories[1].level: unknown level \"l3\" (known: registers, sram, cache, dram)"),
             Arguments.of("rows too big", replace(6, "    rows: 100000"),
                     "feeder.yaml:6: engines[0].rows: must be at most 65536 (got 100000)"));
     }
@@ -226,13 +226,13 @@ class DeviceLoaderErrorsTest {
     void wrongExtensionIsRejectedBeforeReading() {
         BadInputException e = assertThrows(BadInputException.class, () -> DeviceLoader.load("feeder.txt", dir));
         assertEquals("feeder.txt: not a device profile file name (it must end in .yaml, .yml or .json, or use "
-                + "preset:ID; presets: edge22-analog, edge22-in-memory, edge22-no-reuse, edge22-reuse, edge22-xnor, feeder-npu, generic-45nm, validation-65nm, validation-in-memory-65nm)", e.getMessage());
+                + "preset:ID; presets: edge22-analog, edge22-in-memory, edge22-no-reuse, edge22-reuse, edge22-xnor, feeder-npu, generic-45nm, host-2core-example, validation-65nm, validation-in-memory-65nm)", e.getMessage());
     }
 
     @Test
     void unknownPresetListsThePresets() {
         BadInputException e = assertThrows(BadInputException.class, () -> DeviceLoader.load("preset:nope", dir));
-        assertEquals("preset:nope: no such preset (presets: edge22-analog, edge22-in-memory, edge22-no-reuse, edge22-reuse, edge22-xnor, feeder-npu, generic-45nm, validation-65nm, validation-in-memory-65nm)",
+        assertEquals("preset:nope: no such preset (presets: edge22-analog, edge22-in-memory, edge22-no-reuse, edge22-reuse, edge22-xnor, feeder-npu, generic-45nm, host-2core-example, validation-65nm, validation-in-memory-65nm)",
                 e.getMessage());
         e = assertThrows(BadInputException.class, () -> DeviceLoader.load("preset:../../secret", dir));
         assertTrue(e.getMessage().startsWith("preset:../../secret: no such preset"), e.getMessage());

@@ -38,7 +38,7 @@ class DeviceLoaderTest {
         }
         assertEquals(List.copyOf(files), DeviceLoader.presetIds());
         assertEquals(List.of("edge22-analog", "edge22-in-memory", "edge22-no-reuse", "edge22-reuse", "edge22-xnor",
-                "feeder-npu", "generic-45nm", "validation-65nm", "validation-in-memory-65nm"), DeviceLoader.presetIds());
+                "feeder-npu", "generic-45nm", "host-2core-example", "validation-65nm", "validation-in-memory-65nm"), DeviceLoader.presetIds());
     }
 
     @ParameterizedTest
