@@ -31,6 +31,8 @@ public final class DeviceLoader {
     /** Profiles are small; anything larger is refused before it is read. */
     public static final int MAX_FILE_BYTES = 1 << 20;
     public static final String PRESET_PREFIX = "preset:";
+    /** Faults listed in one message; the rest are counted. */
+    static final int MAX_FAULTS_SHOWN = 20;
     private static final String PRESET_DIR = "dev/erg/device/presets/";
     private static final Pattern PRESET_ID = Pattern.compile("[a-z0-9][a-z0-9-]{0,63}");
 
@@ -153,7 +155,29 @@ public final class DeviceLoader {
             throw new BadInputException(label + ": not valid " + (json ? "JSON" : "YAML") + ": "
                     + oneLine(e.getMessage() != null ? e.getMessage() : e.getClass().getSimpleName()));
         }
+        if (root != null && root.type == ProfileTree.Type.MAP) {
+            List<ProfileSchema.Fault> faults = ProfileSchema.check(label, root);
+            if (!faults.isEmpty()) {
+                throw new BadInputException(faultLine(label, faults));
+            }
+        }
         return new ProfileReader(label).read(label, root);
+    }
+
+    /** One fault as its line; several as {@code N faults: a; b; c} (the first 20, then how many more). */
+    static String faultLine(String label, List<ProfileSchema.Fault> faults) {
+        if (faults.size() == 1) {
+            return faults.get(0).format(label);
+        }
+        StringBuilder b = new StringBuilder().append(faults.size()).append(" faults: ");
+        int shown = Math.min(faults.size(), MAX_FAULTS_SHOWN);
+        for (int i = 0; i < shown; i++) {
+            b.append(i == 0 ? "" : "; ").append(faults.get(i).format(label));
+        }
+        if (faults.size() > shown) {
+            b.append("; and ").append(faults.size() - shown).append(" more");
+        }
+        return b.toString();
     }
 
     private static String oneLine(String s) {

@@ -7,7 +7,6 @@ import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;
 import java.util.ArrayList;
-import java.util.Collections;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.LinkedHashSet;
@@ -16,31 +15,14 @@ import java.util.Map;
 import java.util.Set;
 
 /**
- * Turns a profile document tree into a {@link DeviceProfile}, strictly: every key must be known,
- * every number must carry its unit in the key name and lie in range. The first fault ends the read
- * with one line naming the file, the line and the key path. Engines are read by {@link EngineReader}.
+ * Turns a profile document tree that the schema has accepted ({@link ProfileSchema}) into a
+ * {@link DeviceProfile}. The keys, types and ranges are the schema's; this reads the values and checks
+ * what the schema cannot say (ids used twice, a capacity that is no whole number of bytes, a rows-active
+ * above the rows, energies given for some levels but not others, a source path that names no key). Such
+ * a fault ends the read with one line naming the file, the line and the key path. Engines are read by
+ * {@link EngineReader}.
  */
 final class ProfileReader extends ProfileFields {
-    static final List<String> ROOT_KEYS = List.of("$schema", "name", "description", "clock-mhz", "static-power-mw",
-            "deploy-precision", "engines", "memories", "sources");
-    static final List<String> REGISTER_KEYS = List.of("id", "level", "read-energy-fj-per-byte",
-            "read-energy-pj-per-byte", "write-energy-fj-per-byte", "write-energy-pj-per-byte");
-    static final List<String> SRAM_KEYS = List.of("id", "level", "capacity-kib", "capacity-mib", "capacity-bytes",
-            "read-energy-fj-per-byte", "read-energy-pj-per-byte", "write-energy-fj-per-byte",
-            "write-energy-pj-per-byte", "bytes-per-cycle", "gbytes-per-second");
-    static final List<String> CACHE_KEYS = SRAM_KEYS;
-    static final List<String> DRAM_KEYS = List.of("id", "level", "read-energy-fj-per-byte", "read-energy-pj-per-byte",
-            "write-energy-fj-per-byte", "write-energy-pj-per-byte", "bytes-per-cycle", "gbytes-per-second");
-    /** Every key a memory level may carry at some level, to tell "wrong level" from "unknown". */
-    private static final Set<String> ANY_MEMORY_KEYS;
-
-    static {
-        Set<String> all = new LinkedHashSet<>(SRAM_KEYS);
-        all.addAll(DRAM_KEYS);
-        all.addAll(REGISTER_KEYS);
-        ANY_MEMORY_KEYS = Collections.unmodifiableSet(all);
-    }
-
     ProfileReader(String label) {
         super(label);
     }
@@ -54,7 +36,6 @@ final class ProfileReader extends ProfileFields {
             throw fail(root.line, "", "a device profile must be a mapping of keys (got " + root.describe() + ")");
         }
         Obj top = new Obj(root, "");
-        top.checkKeys(ROOT_KEYS, null, null);
         if (top.get("$schema") != null) {
             text(top, "$schema");
         }
@@ -67,10 +48,6 @@ final class ProfileReader extends ProfileFields {
         if (top.get("deploy-precision") != null) {
             Entry e = top.get("deploy-precision");
             deploy = text(top, "deploy-precision");
-            if (!Precisions.isLabel(deploy, PRECISIONS) || deploy.startsWith("w")) {
-                throw fail(e.value.line, top.sub(e.key), "unknown precision label \"" + clip(deploy) + "\" (known: "
-                        + String.join(", ", PRECISIONS) + ", int1 to int64, uint1 to uint64)");
-            }
         }
         List<Engine> engines = new EngineReader(label).engines(top);
         boolean allCpu = true;
@@ -205,9 +182,6 @@ final class ProfileReader extends ProfileFields {
     }
 
     private Memory memory(Obj o, String id, Memory.Level level, boolean energyOptional) {
-        List<String> known = level == Memory.Level.SRAM ? SRAM_KEYS : level == Memory.Level.CACHE ? CACHE_KEYS
-                : level == Memory.Level.DRAM ? DRAM_KEYS : REGISTER_KEYS;
-        o.checkKeys(known, ANY_MEMORY_KEYS, "for a " + level.key + " level");
         long capacity = -1;
         if (level == Memory.Level.SRAM || level == Memory.Level.CACHE) {
             capacity = capacity(o, level);

@@ -57,8 +57,7 @@ class EngineKindErrorsTest {
                         "p.yaml:7: engines[0].macs-per-cycle: no unit; write macs-per-cycle-per-core"),
                 Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }", "mac-energy-fj: { fp32: 900 }")
                                 + CACHES,
-                        "p.yaml:8: engines[0].op-energy-fj: missing (a cpu gives mac-energy and op-energy together, "
-                                + "or neither when its energy is unknown)"),
+                        "p.yaml:4: engines[0].op-energy-fj: missing (give op-energy-fj or op-energy-pj)"),
                 Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }", "mac-energy-fj: { fp32: 900 }",
                                 "op-energy-fj: { fp32: 90 }") + CACHES,
                         "p.yaml:11: memories[0].read-energy-fj-per-byte: missing (give every energy of the profile or "
@@ -90,8 +89,8 @@ class EngineKindErrorsTest {
                 Arguments.of("name: t\nclock-mhz: 100\nengines:\n  - id: a\n    kind: mac-array\n    rows: 8\n"
                         + "    columns: 8\n    dataflow: weight-stationary\n    mac-energy-fj: { int8: 50 }\n"
                         + "    xnor-energy-fj: 0.1\n" + MEMORIES,
-                        "p.yaml:10: engines[0].popcount-energy-fj: missing (a 1-bit MAC is priced from xnor-energy-fj "
-                                + "and popcount-energy-fj together)"),
+                        "p.yaml:10: engines[0].popcount-energy-fj: missing (give xnor-energy-fj and popcount-energy-fj "
+                                + "together)"),
                 Arguments.of("name: t\nclock-mhz: 100\nengines:\n  - id: a\n    kind: analog-sum-array\n    rows: 8\n"
                         + "    columns: 8\n    multiply-energy-fj: { int8: 50 }\n    accumulation-energy-fj: 1\n"
                         + "    conversion-energy-fj: 100\n    converter-bits: 40\n    partial-add-energy-fj: 5\n" + MEMORIES,
