@@ -54,6 +54,7 @@ final class ProfileSchema {
         static final JsonSchema SCHEMA;
 
         static {
+            quietLogging();
             try (InputStream in = ProfileSchema.class.getClassLoader().getResourceAsStream(RESOURCE)) {
                 if (in == null) {
                     throw new IllegalStateException("the profile schema " + RESOURCE + " is not packaged");
@@ -63,6 +64,29 @@ final class ProfileSchema {
                 throw new UncheckedIOException(e);
             }
             SCHEMA = JsonSchemaFactory.getInstance(SpecVersion.VersionFlag.V202012).getSchema(JSON);
+        }
+    }
+
+    /**
+     * The validator logs through SLF4J. When no logging provider is on the class path (the CLI), SLF4J
+     * falls back to no logging but first warns on stderr; select that fallback explicitly instead, so a
+     * command's output stays its own. A host with a provider (Maven, an application) is left alone.
+     */
+    private static void quietLogging() {
+        if (System.getProperty("slf4j.provider") != null) {
+            return;
+        }
+        try {
+            Class<?> spi = Class.forName("org.slf4j.spi.SLF4JServiceProvider");
+            if (java.util.ServiceLoader.load(spi, spi.getClassLoader()).findFirst().isPresent()) {
+                return;
+            }
+        } catch (ClassNotFoundException | java.util.ServiceConfigurationError e) {
+            return;
+        }
+        System.setProperty("slf4j.provider", "org.slf4j.helpers.NOP_FallbackServiceProvider");
+        if (System.getProperty("slf4j.internal.verbosity") == null) {
+            System.setProperty("slf4j.internal.verbosity", "WARN");
         }
     }
 
