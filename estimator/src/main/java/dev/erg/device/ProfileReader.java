@@ -191,7 +191,7 @@ final class ProfileReader extends ProfileFields {
         double perCycle = 0;
         double perSecond = 0;
         if (level != Memory.Level.REGISTERS) {
-            Entry bw = oneOf(o, "bytes-per-cycle", "gbytes-per-second", level == Memory.Level.CACHE);
+            Entry bw = oneOf(o, "bytes-per-cycle", "gbytes-per-second", false);
             if (bw != null && bw.key.equals("bytes-per-cycle")) {
                 perCycle = positive(o, bw);
             } else if (bw != null) {

@@ -155,7 +155,7 @@ class DeviceProfileSchemaTest {
                     DeviceLoaderErrorsTest.insert(18, "    bytes-per-cycle: 8", "    gbytes-per-second: 1")),
             Arguments.of("negative static power", DeviceLoaderErrorsTest.insert(2, "static-power-mw: -1")),
             Arguments.of("source not text", DeviceLoaderErrorsTest.insert(21, "sources:", "  clock-mhz: 5")),
-            Arguments.of("cache without bandwidth", CPU.replace("    bytes-per-cycle: 64\n", "")),
+            Arguments.of("cache without capacity", CPU.replace("    capacity-kib: 64\n", "")),
             Arguments.of("cache beside sram", CPU.replace("  - id: dram", "  - id: sram\n    capacity-kib: 1\n"
                     + "    read-energy-fj-per-byte: 1\n    write-energy-fj-per-byte: 1\n  - id: dram")),
             Arguments.of("cpu without rates", CPU.replace("    macs-per-cycle-per-core: { fp32: 16 }\n", "")),

@@ -67,8 +67,9 @@ class EngineKindErrorsTest {
                         "p.yaml:13: memories[1]: an sram level beside cache levels (a profile has one sram or cache "
                                 + "levels)"),
                 Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }") + CACHES.replace(
-                                "    bytes-per-cycle: 64\n", ""),
-                        "p.yaml:9: memories[0].bytes-per-cycle: missing (give bytes-per-cycle or gbytes-per-second)"),
+                                "    bytes-per-cycle: 64\n", "    bytes-per-cycle: 64\n    gbytes-per-second: 100\n"),
+                        "p.yaml:13: memories[0].gbytes-per-second: give bytes-per-cycle or gbytes-per-second, not both "
+                                + "(bytes-per-cycle is on line 12)"),
                 Arguments.of(macro("row-drive-energy-fj: 10", "column-energy-fj: 20", "converter-bits: 8",
                         "cell-write-energy-fj: 2", "shift-add-energy-fj: 5"),
                         "p.yaml:4: engines[0].conversion-energy-fj: missing (an in-memory-macro needs rows, columns, "
