@@ -340,8 +340,8 @@ public final class Estimator {
         double compute = macs.compute();
         if (w.vectorOps() > 0) {
             Engine eng = vectorEngine != null ? vectorEngine : arrayEngine;
-            compute += w.vectorOps() * pricing.fj(eng, e.precision, eng == vectorEngine ? "vector op" : "MAC")
-                    * Pricing.FJ;
+            String what = eng == vectorEngine || eng.cpu() != null ? "vector op" : "MAC";
+            compute += w.vectorOps() * pricing.fj(eng, e.precision, what) * Pricing.FJ;
         }
         Memory reg = device.registers();
         double regJ = reg == null ? 0

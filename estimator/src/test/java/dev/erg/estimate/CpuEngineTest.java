@@ -98,14 +98,9 @@ class CpuEngineTest {
         assertEquals(16, Engine.Cpu.rate(Map.of("fp32", 16.0), "int8").perCycle(), EPS); // the other family
     }
 
-    /**
-     * Worked example 10: with energies, the split works as on an accelerator. x [16, 64] x w [64, 32] fp32 on
-     * one core of 8 fp32 MACs per cycle at 1 GHz, MAC 1 pJ, L1 32 KiB at 50 fJ/B, DRAM 20 pJ/B (invented
-     * round numbers): 4096 cycles; 14 336 B through L1 (the working set fits it); 6144 B of DRAM.
-     */
-    @Test
-    void withEnergiesTheSplitIsPriced() {
-        DeviceProfile d = Profiles.load(String.join("\n",
+    /** The profile of worked example 10: one core, with energies (invented round numbers). */
+    private static DeviceProfile smallHost() {
+        return Profiles.load(String.join("\n",
                 "name: small host",
                 "clock-mhz: 1000",
                 "engines:",
@@ -133,6 +128,28 @@ class CpuEngineTest {
                 "    read-energy-pj-per-byte: 20",
                 "    write-energy-pj-per-byte: 20",
                 ""));
+    }
+
+    /** Vector work on a processor with energies is priced at its op energy: Relu of 16 x 64 = 1024 ops x 100 fJ. */
+    @Test
+    void vectorOpsArePricedAtTheOpEnergy() {
+        OnnxWriter.Graph g = new OnnxWriter.Graph("relu")
+                .input("x", ElemType.FLOAT, 16, 64)
+                .node("Relu", "relu", List.of("x"), List.of("y"))
+                .output("y", ElemType.FLOAT);
+        NodeEstimate r = only(Estimator.estimate(Models.analyze(g), smallHost()), "Relu");
+        assertEquals(128, r.computeCycles()); // 1024 / 8
+        assertEquals(102.4e-15 * 1000, r.energy().compute(), 1e-18);
+    }
+
+    /**
+     * Worked example 10: with energies, the split works as on an accelerator. x [16, 64] x w [64, 32] fp32 on
+     * one core of 8 fp32 MACs per cycle at 1 GHz, MAC 1 pJ, L1 32 KiB at 50 fJ/B, DRAM 20 pJ/B (invented
+     * round numbers): 4096 cycles; 14 336 B through L1 (the working set fits it); 6144 B of DRAM.
+     */
+    @Test
+    void withEnergiesTheSplitIsPriced() {
+        DeviceProfile d = smallHost();
         DeviceEstimate e = Estimator.estimate(Models.analyze(Models.matmul(16, 64, 32)), d);
         NodeEstimate m = only(e, "MatMul");
         assertTrue(e.energyKnown());
