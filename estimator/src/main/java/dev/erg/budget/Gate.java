@@ -34,6 +34,16 @@ public final class Gate {
         if (requireModelled) {
             checks.add(modelled(who, e.workload()));
         }
+        if (!e.energyKnown()) {
+            for (String key : new String[] {"maxPowerMw", "maxEnergyPerFrameUj"}) {
+                if (budget.limits().containsKey(key)) {
+                    throw new dev.erg.error.BadInputException(who + ": the device profile gives no energies, so a "
+                            + (key.equals("maxPowerMw") ? "power" : "energy-per-frame")
+                            + " budget cannot be checked on it (leave the limit out for this device, or use a"
+                            + " profile with energies)");
+                }
+            }
+        }
         checks.addAll(BudgetRules.check(who, e, budget, 0));
         Baseline.Entry base = baseline == null ? null : baseline.entry(model, device);
         List<LayerDiff> diff = base == null ? List.of() : Baseline.diff(base, e);

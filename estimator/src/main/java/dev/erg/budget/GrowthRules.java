@@ -27,7 +27,11 @@ public final class GrowthRules {
                                     List<LayerDiff> diff) {
         List<Check> out = new ArrayList<>();
         for (GrowthRule r : RULES) {
-            out.add(check(r, who, r.now().applyAsDouble(e), r.before().applyAsDouble(base), allowed, diff));
+            double before = r.before().applyAsDouble(base);
+            if (r.metric() == Metric.ENERGY_PER_FRAME && (!e.energyKnown() || !Double.isFinite(before))) {
+                continue; // a profile without energies: energy is unknown, so it cannot grow
+            }
+            out.add(check(r, who, r.now().applyAsDouble(e), before, allowed, diff));
         }
         return out;
     }

@@ -32,6 +32,8 @@ public final class DeviceLoader {
     /** Profiles are small; anything larger is refused before it is read. */
     public static final int MAX_FILE_BYTES = 1 << 20;
     public static final String PRESET_PREFIX = "preset:";
+    /** Faults listed in one message; the rest are counted. */
+    static final int MAX_FAULTS_SHOWN = 20;
     private static final String PRESET_DIR = "dev/erg/device/presets/";
     private static final Pattern PRESET_ID = Pattern.compile("[a-z0-9][a-z0-9-]{0,63}");
 
@@ -113,7 +115,7 @@ public final class DeviceLoader {
         } catch (IOException e) {
             throw new BadInputException(label + ": cannot read the preset (" + e.getMessage() + ")");
         }
-        return parse(label, data, false);
+        return parse(label, data, false, false); // presets pass the schema at build time (DeviceProfileSchemaTest)
     }
 
     private static byte[] readCapped(String label, Path file) {
@@ -137,6 +139,11 @@ public final class DeviceLoader {
 
     /** Parses and validates profile text; {@code label} names it in messages and becomes its id. */
     static DeviceProfile parse(String label, byte[] data, boolean json) {
+        return parse(label, data, json, true);
+    }
+
+    /** As above; {@code checkSchema} false skips the schema (for the built-in presets, checked by the build). */
+    static DeviceProfile parse(String label, byte[] data, boolean json, boolean checkSchema) {
         Node root;
         try (JsonParser p = json ? JSON.createParser(data) : Yaml.parser(data)) {
             root = ProfileTree.read(p, label);
@@ -151,6 +158,12 @@ public final class DeviceLoader {
             throw new BadInputException(label + ": not valid " + (json ? "JSON" : "YAML") + ": "
                     + oneLine(e.getMessage() != null ? e.getMessage() : e.getClass().getSimpleName()));
         }
+        if (checkSchema && root != null && root.type == ProfileTree.Type.MAP) {
+            List<ProfileSchema.Fault> faults = ProfileSchema.check(label, root);
+            if (!faults.isEmpty()) {
+                throw new BadInputException(faultLine(label, faults));
+            }
+        }
         return new ProfileReader(label).read(label, root);
     }
 
@@ -164,6 +177,22 @@ public final class DeviceLoader {
         static JsonParser parser(byte[] data) throws IOException {
             return FACTORY.createParser(data);
         }
+    }
+
+    /** One fault as its line; several as {@code N faults: a; b; c} (the first 20, then how many more). */
+    static String faultLine(String label, List<ProfileSchema.Fault> faults) {
+        if (faults.size() == 1) {
+            return faults.get(0).format(label);
+        }
+        StringBuilder b = new StringBuilder().append(faults.size()).append(" faults: ");
+        int shown = Math.min(faults.size(), MAX_FAULTS_SHOWN);
+        for (int i = 0; i < shown; i++) {
+            b.append(i == 0 ? "" : "; ").append(faults.get(i).format(label));
+        }
+        if (faults.size() > shown) {
+            b.append("; and ").append(faults.size() - shown).append(" more");
+        }
+        return b.toString();
     }
 
     private static String oneLine(String s) {

@@ -18,6 +18,7 @@ public final class DeviceProfile {
     private final double staticPowerMw;
     private final String deployPrecision;
     private final Map<String, String> sources;
+    private final List<Memory> caches;
 
     public DeviceProfile(String id, String name, double clockMhz, List<Engine> engines, Memory registers, Memory sram,
                          Memory dram, double staticPowerMw, String deployPrecision, Map<String, String> sources) {
@@ -28,13 +29,28 @@ public final class DeviceProfile {
     public DeviceProfile(String id, String name, String description, double clockMhz, List<Engine> engines,
                          Memory registers, Memory sram, Memory dram, double staticPowerMw, String deployPrecision,
                          Map<String, String> sources) {
+        this(id, name, description, clockMhz, engines, registers, sram, List.of(), dram, staticPowerMw,
+                deployPrecision, sources);
+    }
+
+    /**
+     * As above, with cache levels (nearest first) instead of an SRAM: {@code sram} null and
+     * {@code caches} not empty, or the other way round.
+     */
+    public DeviceProfile(String id, String name, String description, double clockMhz, List<Engine> engines,
+                         Memory registers, Memory sram, List<Memory> caches, Memory dram, double staticPowerMw,
+                         String deployPrecision, Map<String, String> sources) {
+        if ((sram == null) == caches.isEmpty()) {
+            throw new IllegalArgumentException("a profile has an sram level or cache levels, not both or neither");
+        }
+        this.caches = List.copyOf(caches);
         this.id = id;
         this.name = name;
         this.description = description;
         this.clockMhz = clockMhz;
         this.engines = List.copyOf(engines);
         this.registers = registers;
-        this.sram = sram;
+        this.sram = sram != null ? sram : this.caches.get(this.caches.size() - 1);
         this.dram = dram;
         this.staticPowerMw = staticPowerMw;
         this.deployPrecision = deployPrecision;
@@ -72,8 +88,35 @@ public final class DeviceProfile {
         return registers;
     }
 
+    /**
+     * The on-chip level that holds weights and activations: the SRAM, or on a processor the last (largest)
+     * cache level. Placement sizes residency, spills and tiles by its capacity.
+     */
     public Memory sram() {
         return sram;
+    }
+
+    /** The cache levels of a processor, nearest first (L1, L2, ...); empty for a profile with an SRAM. */
+    public List<Memory> caches() {
+        return caches;
+    }
+
+    /**
+     * True when the profile prices energy: every engine and every memory level gives its energies. Only a
+     * processor profile may leave them out; its estimates then report energy as unknown.
+     */
+    public boolean energyKnown() {
+        for (Engine e : engines) {
+            if (!e.energyKnown()) {
+                return false;
+            }
+        }
+        for (Memory m : caches) {
+            if (!m.energyKnown()) {
+                return false;
+            }
+        }
+        return (registers == null || registers.energyKnown()) && sram.energyKnown() && dram.energyKnown();
     }
 
     public Memory dram() {

@@ -15,7 +15,7 @@ public final class Engine {
     /** What kind of engine. */
     public enum Kind {
         MAC_ARRAY("mac-array"), VECTOR("vector"), ANALOG_SUM_ARRAY("analog-sum-array"),
-        IN_MEMORY_MACRO("in-memory-macro");
+        IN_MEMORY_MACRO("in-memory-macro"), CPU("cpu");
 
         public final String key;
 
@@ -48,6 +48,7 @@ public final class Engine {
     private Binary binary;
     private AnalogSum analog;
     private Macro macro;
+    private Cpu cpu;
 
     /**
      * The energies of a 1-bit (+1/-1) MAC on a digital engine, in fJ: an XNOR gate per product plus the
@@ -78,6 +79,94 @@ public final class Engine {
         public long capacityBits(int rows, int columns) {
             return (long) rows * columns * bitsPerCell * count;
         }
+    }
+
+    /**
+     * A processor: {@code cores} cores (or threads used), each retiring {@code macsPerCycle} MACs per
+     * cycle at a precision (SIMD lanes x FMA units) and {@code opsPerCycle} vector operations (elementwise
+     * work on the same SIMD lanes). {@code opEnergyFj} prices a vector op; the MAC energies are the
+     * engine's {@link Engine#energyFj()}. Both energy tables are empty when the profile gives none.
+     */
+    public record Cpu(int cores, Map<String, Double> macsPerCycle, Map<String, Double> opsPerCycle,
+                      Map<String, Double> opEnergyFj) {
+        public Cpu {
+            macsPerCycle = Collections.unmodifiableMap(new TreeMap<>(macsPerCycle));
+            opsPerCycle = Collections.unmodifiableMap(new TreeMap<>(opsPerCycle));
+            opEnergyFj = Collections.unmodifiableMap(new TreeMap<>(opEnergyFj));
+        }
+
+        /** True when the profile prices this processor's MACs and vector ops. */
+        public boolean energyKnown() {
+            return !opEnergyFj.isEmpty();
+        }
+
+        /** MACs per cycle per core at {@code precision} ({@link #rate}). */
+        public Rate macRate(String precision) {
+            return rate(macsPerCycle, precision);
+        }
+
+        /** Vector ops per cycle per core at {@code precision}; the MAC rates when the profile lists none. */
+        public Rate opRate(String precision) {
+            return rate(opsPerCycle.isEmpty() ? macsPerCycle : opsPerCycle, precision);
+        }
+
+        /**
+         * The rate at {@code precision} from a table: the listed value; else the rate of the narrowest
+         * listed precision of the same family (integer or float) at least as wide, since narrower
+         * operands do not make SIMD lanes narrower (int4 runs as int8); else the widest listed one of
+         * the family scaled by width ratio (an int16 lane holds half as many elements as an int8 lane);
+         * else the other family by the same two rules. A pair {@code wNaM} counts as its wider operand.
+         * Returns null for a label with no bit width.
+         */
+        public static Rate rate(Map<String, Double> table, String precision) {
+            Double v = table.get(precision);
+            if (v != null) {
+                return new Rate(v, precision);
+            }
+            int[] mixed = Precisions.mixedBits(precision);
+            int bits = mixed != null ? Math.max(mixed[0], mixed[1]) : Precisions.bits(precision);
+            if (bits == 0) {
+                return null;
+            }
+            boolean flt = mixed == null && Precisions.isFloat(precision);
+            Rate r = rate(table, bits, flt);
+            return r != null ? r : rate(table, bits, !flt);
+        }
+
+        private static Rate rate(Map<String, Double> table, int bits, boolean flt) {
+            String atLeast = null;
+            String widest = null;
+            for (String p : table.keySet()) { // sorted: ties go to the first label
+                int b = Precisions.bits(p);
+                if (b == 0 || Precisions.mixedBits(p) != null || Precisions.isFloat(p) != flt) {
+                    continue;
+                }
+                if (b >= bits && (atLeast == null || b < Precisions.bits(atLeast))) {
+                    atLeast = p;
+                }
+                if (widest == null || b > Precisions.bits(widest)) {
+                    widest = p;
+                }
+            }
+            if (atLeast != null) {
+                return new Rate(table.get(atLeast), atLeast);
+            }
+            return widest == null ? null
+                    : new Rate(table.get(widest) * Precisions.bits(widest) / bits, widest);
+        }
+    }
+
+    /** A per-cycle rate looked up at a precision, and the listed precision it came {@code from}. */
+    public record Rate(double perCycle, String from) {
+    }
+
+    /** A processor engine (kind {@code cpu}); {@code macEnergyFj} may be empty when the profile gives none. */
+    public static Engine cpu(String id, Cpu cpu, Map<String, Double> macEnergyFj, double multiplyFraction,
+                             long layerOverheadCycles) {
+        Engine e = new Engine(id, Kind.CPU, 0, 0, 0, null, macEnergyFj, multiplyFraction, DEFAULT_ACCUMULATOR_BITS,
+                layerOverheadCycles);
+        e.cpu = cpu;
+        return e;
     }
 
     /** An engine with kind-specific parameters (each may be null when the kind takes none). */
@@ -122,13 +211,23 @@ public final class Engine {
         return columns;
     }
 
-    /** Parallel units: rows x columns for an array, cells of every macro for a macro, lanes for a vector unit. */
+    /**
+     * Parallel units: rows x columns for an array, cells of every macro for a macro, lanes for a vector
+     * unit, cores x the highest MACs per cycle for a processor.
+     */
     public long units() {
         switch (kind) {
             case VECTOR:
                 return lanes;
             case IN_MEMORY_MACRO:
                 return (long) rows * columns * macro.count();
+            case CPU: {
+                double most = 0;
+                for (double r : cpu.macsPerCycle().values()) {
+                    most = Math.max(most, r);
+                }
+                return Math.max(1, (long) Math.floor(cpu.cores() * most));
+            }
             default:
                 return (long) rows * columns;
         }
@@ -152,6 +251,16 @@ public final class Engine {
     /** The macro parameters of an in-memory-macro, else null. */
     public Macro macro() {
         return macro;
+    }
+
+    /** The processor parameters of a cpu engine, else null. */
+    public Cpu cpu() {
+        return cpu;
+    }
+
+    /** False for a cpu engine whose profile gives no energies; every other kind is priced. */
+    public boolean energyKnown() {
+        return cpu == null || cpu.energyKnown();
     }
 
     public int lanes() {

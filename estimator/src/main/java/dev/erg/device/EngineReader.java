@@ -6,39 +6,18 @@ import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;
 import java.util.ArrayList;
-import java.util.Collections;
 import java.util.HashMap;
-import java.util.LinkedHashSet;
 import java.util.List;
 import java.util.Map;
-import java.util.Set;
 
-/** Reads the engines of a profile, one method per kind (docs/profiles.md, "Engines"). */
+/**
+ * Reads the engines of a profile, one method per kind (docs/profiles.md, "Engines"), after the schema has
+ * accepted the document: which keys an engine takes is the schema's to say, not this class's.
+ */
 final class EngineReader extends ProfileFields {
-    static final List<String> MAC_ARRAY_KEYS = List.of("id", "kind", "rows", "columns", "dataflow", "mac-energy-fj",
-            "mac-energy-pj", "multiply-fraction", "accumulator-bits", "layer-overhead-cycles", "xnor-energy-fj",
-            "popcount-energy-fj");
-    static final List<String> VECTOR_KEYS = List.of("id", "kind", "lanes", "op-energy-fj", "op-energy-pj",
-            "multiply-fraction", "layer-overhead-cycles");
-    static final List<String> ANALOG_KEYS = List.of("id", "kind", "rows", "columns", "multiply-energy-fj",
-            "multiply-energy-pj", "multiply-fraction", "accumulation-energy-fj", "conversion-energy-fj",
-            "converter-bits", "partial-add-energy-fj", "accumulator-bits", "layer-overhead-cycles");
-    static final List<String> MACRO_KEYS = List.of("id", "kind", "rows", "columns", "macros", "bits-per-cell",
-            "weight-bits", "rows-active", "input-bits-per-cycle", "row-drive-energy-fj", "column-energy-fj",
-            "conversion-energy-fj", "converter-bits", "cell-write-energy-fj", "shift-add-energy-fj",
-            "write-cycles-per-row", "accumulator-bits", "layer-overhead-cycles");
-    /** Every engine key of any kind, to tell "wrong kind" from "unknown". */
-    private static final Set<String> ANY_ENGINE_KEYS;
-
-    static {
-        Set<String> all = new LinkedHashSet<>(MAC_ARRAY_KEYS);
-        all.addAll(VECTOR_KEYS);
-        all.addAll(ANALOG_KEYS);
-        all.addAll(MACRO_KEYS);
-        ANY_ENGINE_KEYS = Collections.unmodifiableSet(all);
-    }
-
-    static final String KINDS = "mac-array, vector, analog-sum-array, in-memory-macro";
+    static final String KINDS = "mac-array, vector, analog-sum-array, in-memory-macro, cpu";
+    /** Upper bound for cores: far above any real processor. */
+    static final int MAX_CORES = 4096;
     /** Upper bound for rows, columns and lanes: far above any real array, far below overflow. */
     static final int MAX_UNITS_SIDE = 65536;
 
@@ -78,6 +57,8 @@ final class EngineReader extends ProfileFields {
                 out.add(analog(o, id));
             } else if (kind.equals(Engine.Kind.IN_MEMORY_MACRO.key)) {
                 out.add(macro(o, id));
+            } else if (kind.equals(Engine.Kind.CPU.key)) {
+                out.add(cpu(o, id));
             } else {
                 throw fail(kindEntry.value.line, o.sub("kind"), "unknown kind \"" + clip(kind) + "\" (known: " + KINDS
                         + ")");
@@ -87,7 +68,6 @@ final class EngineReader extends ProfileFields {
     }
 
     private Engine macArray(Obj o, String id) {
-        o.checkKeys(MAC_ARRAY_KEYS, ANY_ENGINE_KEYS, "by a mac-array engine");
         String needs = "a mac-array needs rows, columns, dataflow and mac-energy-fj or mac-energy-pj";
         int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
         int columns = (int) whole(o, requireEntry(o, "columns", needs), 1, MAX_UNITS_SIDE);
@@ -119,7 +99,6 @@ final class EngineReader extends ProfileFields {
     }
 
     private Engine vector(Obj o, String id) {
-        o.checkKeys(VECTOR_KEYS, ANY_ENGINE_KEYS, "by a vector engine");
         String needs = "a vector engine needs lanes and op-energy-fj or op-energy-pj";
         int lanes = (int) whole(o, requireEntry(o, "lanes", needs), 1, MAX_UNITS_SIDE);
         Map<String, Double> energy = energyTable(o, "op-energy");
@@ -130,7 +109,6 @@ final class EngineReader extends ProfileFields {
     }
 
     private Engine analog(Obj o, String id) {
-        o.checkKeys(ANALOG_KEYS, ANY_ENGINE_KEYS, "by an analog-sum-array engine");
         String needs = "an analog-sum-array needs rows, columns, multiply-energy-fj or multiply-energy-pj, "
                 + "accumulation-energy-fj, conversion-energy-fj, converter-bits and partial-add-energy-fj";
         int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
@@ -147,7 +125,6 @@ final class EngineReader extends ProfileFields {
     }
 
     private Engine macro(Obj o, String id) {
-        o.checkKeys(MACRO_KEYS, ANY_ENGINE_KEYS, "by an in-memory-macro engine");
         String needs = "an in-memory-macro needs rows, columns, row-drive-energy-fj, column-energy-fj, "
                 + "conversion-energy-fj, converter-bits, cell-write-energy-fj and shift-add-energy-fj";
         int rows = (int) whole(o, requireEntry(o, "rows", needs), 1, MAX_UNITS_SIDE);
@@ -169,6 +146,26 @@ final class EngineReader extends ProfileFields {
                 write, shift, writeCycles);
         return Engine.of(id, Engine.Kind.IN_MEMORY_MACRO, rows, columns, 0, Dataflow.WEIGHT_STATIONARY, Map.of(), 1,
                 accumulatorBits(o), overhead(o, 0), null, null, m);
+    }
+
+    private Engine cpu(Obj o, String id) {
+        String needs = "a cpu needs cores and macs-per-cycle-per-core";
+        int cores = (int) whole(o, requireEntry(o, "cores", needs), 1, MAX_CORES);
+        Map<String, Double> macs = rateTable(o, requireEntry(o, "macs-per-cycle-per-core", needs));
+        Map<String, Double> ops = o.get("ops-per-cycle-per-core") != null
+                ? rateTable(o, o.get("ops-per-cycle-per-core")) : Map.of();
+        Entry mac = oneOf(o, "mac-energy-fj", "mac-energy-pj", false);
+        Entry op = oneOf(o, "op-energy-fj", "op-energy-pj", false);
+        if ((mac == null) != (op == null)) {
+            Entry given = mac != null ? mac : op;
+            throw fail(given.line, o.sub(mac == null ? "mac-energy-fj" : "op-energy-fj"), "missing (a cpu gives "
+                    + "mac-energy and op-energy together, or neither when its energy is unknown)");
+        }
+        Map<String, Double> macEnergy = mac != null ? energyTable(o, "mac-energy") : Map.of();
+        Map<String, Double> opEnergy = op != null ? energyTable(o, "op-energy") : Map.of();
+        double mulFraction = o.get("multiply-fraction") != null
+                ? fraction(o, o.get("multiply-fraction")) : Engine.DEFAULT_MAC_MULTIPLY_FRACTION;
+        return Engine.cpu(id, new Engine.Cpu(cores, macs, ops, opEnergy), macEnergy, mulFraction, overhead(o, 0));
     }
 
     private int accumulatorBits(Obj o) {

@@ -1,10 +1,16 @@
 package dev.erg.device;
 
-/** One level of the memory hierarchy, with energies in fJ per byte (converted from the profile's units). */
+/**
+ * One level of the memory hierarchy, with energies in fJ per byte (converted from the profile's units);
+ * the energies are NaN when a processor profile gives none ({@link #energyKnown()}).
+ */
 public final class Memory {
-    /** The three levels erg prices. */
+    /**
+     * The levels erg prices: registers, one SRAM (an accelerator's buffer) or caches (a processor's,
+     * nearest first), and DRAM.
+     */
     public enum Level {
-        REGISTERS("registers"), SRAM("sram"), DRAM("dram");
+        REGISTERS("registers"), SRAM("sram"), DRAM("dram"), CACHE("cache");
 
         public final String key;
 
@@ -23,6 +29,7 @@ public final class Memory {
 
     /**
      * @param capacityBytes capacity, or -1 when unbounded (DRAM, registers)
+     * @param readFjPerByte read energy, or NaN when unknown (likewise {@code writeFjPerByte})
      * @param bytesPerCycle bandwidth in bytes per core clock cycle, or 0 when given per second
      * @param bytesPerSecond bandwidth in bytes per second, or 0 when given per cycle
      */
@@ -47,6 +54,11 @@ public final class Memory {
 
     public long capacityBytes() {
         return capacityBytes;
+    }
+
+    /** False when the profile gives this level no energies (a processor profile may leave them out). */
+    public boolean energyKnown() {
+        return !Double.isNaN(readFjPerByte) && !Double.isNaN(writeFjPerByte);
     }
 
     public double readFjPerByte() {

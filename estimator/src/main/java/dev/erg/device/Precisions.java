@@ -64,7 +64,7 @@ public final class Precisions {
     }
 
     /** {weight bits, activation bits} of a {@code wNaM} label, or null for any other label. */
-    static int[] mixedBits(String label) {
+    public static int[] mixedBits(String label) {
         java.util.regex.Matcher m = label == null ? null : MIXED_LABEL.matcher(label);
         return m != null && m.matches() ? new int[] {Integer.parseInt(m.group(1)), Integer.parseInt(m.group(2))} : null;
     }

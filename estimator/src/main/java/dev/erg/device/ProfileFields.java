@@ -8,10 +8,8 @@ import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;
 import dev.erg.onnx.ElemType;
-import java.util.ArrayList;
 import java.util.Collections;
 import java.util.LinkedHashMap;
-import java.util.List;
 import java.util.Map;
 import java.util.Set;
 import java.util.TreeSet;
@@ -22,43 +20,6 @@ import java.util.regex.Pattern;
  * strict readers of scalars (numbers with units in the key names, text, ids) and energy tables.
  */
 abstract class ProfileFields {
-    /** Precision labels a profile may price: the numeric element types, as erg names them. */
-    static final Set<String> PRECISIONS;
-
-    static {
-        Set<String> p = new TreeSet<>();
-        for (ElemType t : ElemType.values()) {
-            if ((t.isFloat() || t.isInteger()) && t != ElemType.BOOL) {
-                p.add(t.label);
-            }
-        }
-        PRECISIONS = Collections.unmodifiableSet(p);
-    }
-
-    /** The labels an energy table or deploy-precision accepts, as messages list them. */
-    static final String KNOWN_LABELS = String.join(", ", PRECISIONS) + ", int1 to int64, uint1 to uint64, or a "
-            + "weight/activation pair such as w4a8";
-
-
-    /** Keys written without a unit (or with a unit erg does not take) and the keys to write instead. */
-    private static final Map<String, List<String>> UNIT_STEMS = new LinkedHashMap<>();
-
-    static {
-        UNIT_STEMS.put("clock", List.of("clock-mhz"));
-        UNIT_STEMS.put("static-power", List.of("static-power-mw"));
-        UNIT_STEMS.put("mac-energy", List.of("mac-energy-fj", "mac-energy-pj"));
-        UNIT_STEMS.put("op-energy", List.of("op-energy-fj", "op-energy-pj"));
-        UNIT_STEMS.put("capacity", List.of("capacity-kib", "capacity-mib", "capacity-bytes"));
-        UNIT_STEMS.put("read-energy", List.of("read-energy-fj-per-byte", "read-energy-pj-per-byte"));
-        UNIT_STEMS.put("write-energy", List.of("write-energy-fj-per-byte", "write-energy-pj-per-byte"));
-        UNIT_STEMS.put("bandwidth", List.of("bytes-per-cycle", "gbytes-per-second"));
-        UNIT_STEMS.put("multiply-energy", List.of("multiply-energy-fj", "multiply-energy-pj"));
-        for (String stem : List.of("xnor-energy", "popcount-energy", "accumulation-energy", "conversion-energy",
-                "partial-add-energy", "row-drive-energy", "column-energy", "cell-write-energy", "shift-add-energy")) {
-            UNIT_STEMS.put(stem, List.of(stem + "-fj"));
-        }
-    }
-
     /** Plain decimal numbers (JSON's grammar): no hex, octal, underscores, .inf or .nan. */
     private static final Pattern DECIMAL = Pattern.compile("-?(0|[1-9][0-9]*)(\\.[0-9]*)?([eE][-+]?[0-9]+)?");
     private static final Pattern ID = Pattern.compile("[A-Za-z0-9][A-Za-z0-9._-]{0,63}");
@@ -87,42 +48,10 @@ abstract class ProfileFields {
             return path.isEmpty() ? key : path + "." + key;
         }
 
-        /** Rejects the first key not in {@code known}, with a hint when only the unit is wrong. */
-        void checkKeys(List<String> known, Set<String> otherPlace, String otherWhat) {
-            for (Entry e : node.map.values()) {
-                if (known.contains(e.key)) {
-                    continue;
-                }
-                for (Map.Entry<String, List<String>> stem : UNIT_STEMS.entrySet()) {
-                    String s = stem.getKey();
-                    List<String> instead = new ArrayList<>(stem.getValue());
-                    instead.retainAll(known);
-                    if (instead.isEmpty() || !(e.key.equals(s) || e.key.startsWith(s + "-"))) {
-                        continue;
-                    }
-                    String rest = e.key.substring(s.length());
-                    String what = rest.isEmpty() || rest.equals("-per-byte") || rest.equals("-per-second")
-                            ? "no unit" : "unknown unit";
-                    throw fail(e.line, sub(e.key), what + "; write " + orList(instead));
-                }
-                if (otherPlace != null && otherPlace.contains(e.key)) {
-                    throw fail(e.line, sub(e.key), "not used " + otherWhat + " (known: " + String.join(", ", known)
-                            + ")");
-                }
-                throw fail(e.line, sub(e.key), "unknown key (known: " + String.join(", ", known) + ")");
-            }
-        }
     }
 
     BadInputException fail(int line, String path, String what) {
         return new BadInputException(ProfileTree.at(label, line, path, what));
-    }
-
-    private static String orList(List<String> keys) {
-        if (keys.size() == 1) {
-            return keys.get(0);
-        }
-        return String.join(", ", keys.subList(0, keys.size() - 1)) + " or " + keys.get(keys.size() - 1);
     }
 
     /** A precision -> energy table from {@code stem-fj} or {@code stem-pj}, in fJ. */
@@ -140,14 +69,29 @@ abstract class ProfileFields {
         Obj table = new Obj(e.value, path);
         Map<String, Double> out = new LinkedHashMap<>();
         for (Entry p : e.value.map.values()) {
-            if (!Precisions.isLabel(p.key, PRECISIONS)) {
-                throw fail(p.line, table.sub(p.key), "unknown precision label (known: " + KNOWN_LABELS + ")");
-            }
             out.put(p.key, nonNegative(table, p) * factor);
         }
         return out;
     }
 
+
+    /** A precision -> rate table (MACs or ops per cycle), every value greater than 0. */
+    Map<String, Double> rateTable(Obj o, Entry e) {
+        String path = o.sub(e.key);
+        if (e.value.type != Type.MAP) {
+            throw fail(e.value.line, path, "must be a mapping of precision to a rate, e.g. { fp32: 16, int8: 64 } (got "
+                    + e.value.describe() + ")");
+        }
+        if (e.value.map.isEmpty()) {
+            throw fail(e.value.line, path, "lists no precision; give at least one, e.g. { fp32: 16 }");
+        }
+        Obj table = new Obj(e.value, path);
+        Map<String, Double> out = new LinkedHashMap<>();
+        for (Entry p : e.value.map.values()) {
+            out.put(p.key, positive(table, p));
+        }
+        return out;
+    }
 
     // ---- scalars ----
 

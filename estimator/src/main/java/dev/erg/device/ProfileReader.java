@@ -6,7 +6,7 @@ import dev.erg.error.BadInputException;
 import dev.erg.device.ProfileTree.Entry;
 import dev.erg.device.ProfileTree.Node;
 import dev.erg.device.ProfileTree.Type;
-import java.util.Collections;
+import java.util.ArrayList;
 import java.util.HashMap;
 import java.util.LinkedHashMap;
 import java.util.LinkedHashSet;
@@ -15,30 +15,14 @@ import java.util.Map;
 import java.util.Set;
 
 /**
- * Turns a profile document tree into a {@link DeviceProfile}, strictly: every key must be known,
- * every number must carry its unit in the key name and lie in range. The first fault ends the read
- * with one line naming the file, the line and the key path. Engines are read by {@link EngineReader}.
+ * Turns a profile document tree that the schema has accepted ({@link ProfileSchema}) into a
+ * {@link DeviceProfile}. The keys, types and ranges are the schema's; this reads the values and checks
+ * what the schema cannot say (ids used twice, a capacity that is no whole number of bytes, a rows-active
+ * above the rows, energies given for some levels but not others, a source path that names no key). Such
+ * a fault ends the read with one line naming the file, the line and the key path. Engines are read by
+ * {@link EngineReader}.
  */
 final class ProfileReader extends ProfileFields {
-    static final List<String> ROOT_KEYS = List.of("$schema", "name", "description", "clock-mhz", "static-power-mw",
-            "deploy-precision", "engines", "memories", "sources");
-    static final List<String> REGISTER_KEYS = List.of("id", "level", "read-energy-fj-per-byte",
-            "read-energy-pj-per-byte", "write-energy-fj-per-byte", "write-energy-pj-per-byte");
-    static final List<String> SRAM_KEYS = List.of("id", "level", "capacity-kib", "capacity-mib", "capacity-bytes",
-            "read-energy-fj-per-byte", "read-energy-pj-per-byte", "write-energy-fj-per-byte",
-            "write-energy-pj-per-byte", "bytes-per-cycle", "gbytes-per-second");
-    static final List<String> DRAM_KEYS = List.of("id", "level", "read-energy-fj-per-byte", "read-energy-pj-per-byte",
-            "write-energy-fj-per-byte", "write-energy-pj-per-byte", "bytes-per-cycle", "gbytes-per-second");
-    /** Every key a memory level may carry at some level, to tell "wrong level" from "unknown". */
-    private static final Set<String> ANY_MEMORY_KEYS;
-
-    static {
-        Set<String> all = new LinkedHashSet<>(SRAM_KEYS);
-        all.addAll(DRAM_KEYS);
-        all.addAll(REGISTER_KEYS);
-        ANY_MEMORY_KEYS = Collections.unmodifiableSet(all);
-    }
-
     ProfileReader(String label) {
         super(label);
     }
@@ -52,7 +36,6 @@ final class ProfileReader extends ProfileFields {
             throw fail(root.line, "", "a device profile must be a mapping of keys (got " + root.describe() + ")");
         }
         Obj top = new Obj(root, "");
-        top.checkKeys(ROOT_KEYS, null, null);
         if (top.get("$schema") != null) {
             text(top, "$schema");
         }
@@ -65,22 +48,67 @@ final class ProfileReader extends ProfileFields {
         if (top.get("deploy-precision") != null) {
             Entry e = top.get("deploy-precision");
             deploy = text(top, "deploy-precision");
-            if (!Precisions.isLabel(deploy, PRECISIONS) || deploy.startsWith("w")) {
-                throw fail(e.value.line, top.sub(e.key), "unknown precision label \"" + clip(deploy) + "\" (known: "
-                        + String.join(", ", PRECISIONS) + ", int1 to int64, uint1 to uint64)");
-            }
         }
         List<Engine> engines = new EngineReader(label).engines(top);
-        Memory[] levels = memories(top);
+        boolean allCpu = true;
+        for (Engine e : engines) {
+            allCpu &= e.kind() == Engine.Kind.CPU;
+        }
+        List<Memory> caches = new ArrayList<>();
+        Memory[] levels = memories(top, allCpu, caches);
+        energiesAllOrNone(top, engines, levels, caches);
         Map<String, String> sources = sources(top, root);
-        return new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], levels[2], staticMw,
-                deploy, sources);
+        return new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], caches, levels[2],
+                staticMw, deploy, sources);
+    }
+
+    /**
+     * A processor profile may leave every energy out (its estimates then report energy as unknown), but
+     * not some: either every engine and memory level gives its energies, or none does.
+     */
+    private void energiesAllOrNone(Obj top, List<Engine> engines, Memory[] levels, List<Memory> caches) {
+        List<Object> known = new ArrayList<>();
+        List<Object> unknown = new ArrayList<>();
+        for (Engine e : engines) {
+            (e.energyKnown() ? known : unknown).add(e);
+        }
+        List<Memory> all = new ArrayList<>(caches);
+        for (Memory m : levels) {
+            if (m != null && !caches.contains(m)) {
+                all.add(m);
+            }
+        }
+        for (Memory m : all) {
+            (m.energyKnown() ? known : unknown).add(m);
+        }
+        if (known.isEmpty() || unknown.isEmpty()) {
+            return;
+        }
+        Object first = unknown.get(0);
+        List<Node> memNodes = top.get("memories").value.list;
+        if (first instanceof Engine) {
+            int i = engines.indexOf(first);
+            Node n = top.get("engines").value.list.get(i);
+            throw fail(n.line, "engines[" + i + "].mac-energy-fj", "missing (give every energy of the profile or "
+                    + "none: a processor profile without energies has its energy reported as unknown)");
+        }
+        Memory m = (Memory) first;
+        for (int i = 0; i < memNodes.size(); i++) {
+            Entry idEntry = memNodes.get(i).map.get("id");
+            if (idEntry != null && m.id().equals(idEntry.value.text)) {
+                throw fail(memNodes.get(i).line, "memories[" + i + "]." + (Double.isNaN(m.readFjPerByte())
+                        ? "read-energy-fj-per-byte" : "write-energy-fj-per-byte"), "missing (give every energy of "
+                        + "the profile or none: a processor profile without energies has its energy reported as "
+                        + "unknown)");
+            }
+        }
+        throw fail(top.node.line, "memories", "give every energy of the profile or none");
     }
 
     // ---- memories ----
 
-    /** Registers (or null), SRAM and DRAM. */
-    private Memory[] memories(Obj top) {
+    /** Registers (or null), SRAM (or null when there are caches) and DRAM; cache levels go to {@code caches}. */
+    private Memory[] memories(Obj top, boolean energyOptional, List<Memory> caches) {
         Entry list = requireEntry(top, "memories", "a profile needs name, clock-mhz, engines and memories");
         if (list.value.type != Type.LIST) {
             throw fail(list.value.line, "memories", "must be a list of memory levels (got "
@@ -108,26 +136,38 @@ final class ProfileReader extends ProfileFields {
                 level = levelOf(l);
                 if (level == null) {
                     throw fail(levelEntry.value.line, o.sub("level"), "unknown level \"" + clip(l)
-                            + "\" (known: registers, sram, dram)");
+                            + "\" (known: registers, sram, cache, dram)");
                 }
             } else {
                 level = levelOf(id);
                 if (level == null) {
                     throw fail(n.line, o.sub("level"), "missing (the id \"" + id + "\" names no level; add level: "
-                            + "registers, sram or dram)");
+                            + "registers, sram, cache or dram)");
                 }
+            }
+            if (level == Memory.Level.CACHE) {
+                if (levels[Memory.Level.SRAM.ordinal()] != null) {
+                    throw fail(n.line, path, "a cache level beside an sram level (the sram is " + where[1]
+                            + "; a profile has one sram or cache levels)");
+                }
+                caches.add(memory(o, id, level, energyOptional));
+                continue;
             }
             int k = level.ordinal();
             if (levels[k] != null) {
                 throw fail(n.line, path, "a second " + level.key + " level (the first is " + where[k] + ")");
             }
+            if (level == Memory.Level.SRAM && !caches.isEmpty()) {
+                throw fail(n.line, path, "an sram level beside cache levels (a profile has one sram or cache levels)");
+            }
             where[k] = path + " on line " + n.line;
-            levels[k] = memory(o, id, level);
+            levels[k] = memory(o, id, level, energyOptional);
         }
-        if (levels[Memory.Level.SRAM.ordinal()] == null || levels[Memory.Level.DRAM.ordinal()] == null) {
-            String missing = levels[Memory.Level.SRAM.ordinal()] == null ? "sram" : "dram";
-            throw fail(list.value.line, "memories", "no " + missing + " level (a profile needs sram and dram; "
-                    + "registers are optional)");
+        boolean onChip = levels[Memory.Level.SRAM.ordinal()] != null || !caches.isEmpty();
+        if (!onChip || levels[Memory.Level.DRAM.ordinal()] == null) {
+            String missing = !onChip ? "sram" : "dram";
+            throw fail(list.value.line, "memories", "no " + missing + " level (a profile needs sram and dram, or "
+                    + "cache levels and dram; registers are optional)");
         }
         return levels;
     }
@@ -141,16 +181,13 @@ final class ProfileReader extends ProfileFields {
         return null;
     }
 
-    private Memory memory(Obj o, String id, Memory.Level level) {
-        List<String> known = level == Memory.Level.SRAM ? SRAM_KEYS
-                : level == Memory.Level.DRAM ? DRAM_KEYS : REGISTER_KEYS;
-        o.checkKeys(known, ANY_MEMORY_KEYS, "for a " + level.key + " level");
+    private Memory memory(Obj o, String id, Memory.Level level, boolean energyOptional) {
         long capacity = -1;
-        if (level == Memory.Level.SRAM) {
-            capacity = capacity(o);
+        if (level == Memory.Level.SRAM || level == Memory.Level.CACHE) {
+            capacity = capacity(o, level);
         }
-        double read = energyPerByte(o, "read-energy");
-        double write = energyPerByte(o, "write-energy");
+        double read = energyPerByte(o, "read-energy", energyOptional);
+        double write = energyPerByte(o, "write-energy", energyOptional);
         double perCycle = 0;
         double perSecond = 0;
         if (level != Memory.Level.REGISTERS) {
@@ -164,7 +201,7 @@ final class ProfileReader extends ProfileFields {
         return new Memory(id, level, capacity, read, write, perCycle, perSecond);
     }
 
-    private long capacity(Obj o) {
+    private long capacity(Obj o, Memory.Level level) {
         Entry found = null;
         for (String k : List.of("capacity-kib", "capacity-mib", "capacity-bytes")) {
             Entry e = o.get(k);
@@ -177,7 +214,7 @@ final class ProfileReader extends ProfileFields {
             }
         }
         if (found == null) {
-            throw fail(o.node.line, o.sub("capacity-kib"), "missing (an sram level needs capacity-kib, capacity-mib "
+            throw fail(o.node.line, o.sub("capacity-kib"), "missing (" + (level == Memory.Level.SRAM ? "an sram" : "a cache") + " level needs capacity-kib, capacity-mib "
                     + "or capacity-bytes)");
         }
         double v = positive(o, found);
@@ -193,8 +230,11 @@ final class ProfileReader extends ProfileFields {
         return (long) bytes;
     }
 
-    private double energyPerByte(Obj o, String stem) {
-        Entry e = oneOf(o, stem + "-fj-per-byte", stem + "-pj-per-byte", true);
+    private double energyPerByte(Obj o, String stem, boolean optional) {
+        Entry e = oneOf(o, stem + "-fj-per-byte", stem + "-pj-per-byte", !optional);
+        if (e == null) {
+            return Double.NaN;
+        }
         return nonNegative(o, e) * (e.key.contains("-pj-") ? 1000 : 1);
     }
 

@@ -48,7 +48,7 @@ public final class DeviceEstimate {
     /** Energy per MAC of the frame in joules (total energy over MACs); 0 for a model without MACs. */
     public double energyPerMacJoules() {
         long macs = workload.macs();
-        return macs == 0 ? 0 : energy.total() / macs;
+        return !energyKnown() ? Double.NaN : macs == 0 ? 0 : energy.total() / macs;
     }
 
     /**
@@ -57,7 +57,7 @@ public final class DeviceEstimate {
      */
     public double opsPerWatt() {
         double j = energy.total();
-        return j == 0 ? 0 : 2.0 * workload.macs() / j;
+        return !energyKnown() ? Double.NaN : j == 0 ? 0 : 2.0 * workload.macs() / j;
     }
 
     /** MAC-weighted utilisation of the MAC nodes: total MACs over the sum of MACs / utilisation. */
@@ -86,7 +86,17 @@ public final class DeviceEstimate {
         return nodes;
     }
 
-    /** Energy of one frame by destination, static energy over the frame latency included. */
+    /**
+     * True when the profile prices energy. A processor profile may give no energies (a host profile
+     * measured by erg has none): then {@link #energy()} is {@link Energy#UNKNOWN}, and every energy and
+     * power figure ({@link #energyPerFrameJoules()}, {@link #averagePowerWatts}, {@link #opsPerWatt()},
+     * {@link #energyPerMacJoules()}) is NaN. Writers test this and leave energy out.
+     */
+    public boolean energyKnown() {
+        return device.energyKnown();
+    }
+
+    /** Energy of one frame by destination, static energy over the frame latency included; see {@link #energyKnown()}. */
     public Energy energy() {
         return energy;
     }
@@ -109,6 +119,9 @@ public final class DeviceEstimate {
      * frame rate, plus static power, which is drawn all the time.
      */
     public double averagePowerWatts(double fps) {
+        if (!energyKnown()) {
+            return Double.NaN;
+        }
         double dynamic = energy.dynamic();
         // A frame that costs no dynamic energy adds none at any rate, even an unbounded one (0 x inf is NaN).
         return (dynamic == 0 ? 0 : dynamic * fps) + device.staticPowerMw() * 1e-3;

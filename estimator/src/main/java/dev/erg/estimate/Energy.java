@@ -9,6 +9,12 @@ import java.util.Map;
  */
 public final class Energy {
     public static final Energy ZERO = new Energy(0, 0, 0, 0, 0);
+    /**
+     * Energy that the profile does not price (a processor profile without energies): every part is NaN,
+     * and so is any sum that includes it. Test with {@link #known()}.
+     */
+    public static final Energy UNKNOWN = new Energy(Double.NaN, Double.NaN, Double.NaN, Double.NaN, Double.NaN,
+            Double.NaN, Double.NaN, Double.NaN, Double.NaN);
 
     /** Where energy goes, in the order reports list them. */
     public enum Destination {
@@ -52,6 +58,11 @@ public final class Energy {
         this.cellWrites = cellWrites;
         this.rowDrive = rowDrive;
         this.accumulation = accumulation;
+    }
+
+    /** False when the profile does not price this energy (its parts are NaN; see {@link #UNKNOWN}). */
+    public boolean known() {
+        return !Double.isNaN(total());
     }
 
     /** Arithmetic: MACs and vector operations (for an in-memory macro, the column operations and shift-and-add). */

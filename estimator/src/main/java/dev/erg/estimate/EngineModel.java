@@ -41,6 +41,8 @@ public interface EngineModel {
                 return new AnalogSumArray(engine);
             case IN_MEMORY_MACRO:
                 return new InMemoryMacro(engine);
+            case CPU:
+                return new CpuCores(engine);
             default:
                 switch (engine.dataflow()) {
                     case WEIGHT_STATIONARY:

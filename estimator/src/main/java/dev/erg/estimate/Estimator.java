@@ -107,7 +107,7 @@ public final class Estimator {
             if (nw.kind() == Kind.MAC) {
                 EngineModel model = array != null ? array : vector;
                 MacJob job = job(nw, est[i], model.engine());
-                if (nw.gemmGroups() == 0 || model == vector) {
+                if ((nw.gemmGroups() == 0 || model == vector) && !(model instanceof CpuCores)) {
                     // No matrix view (a node that carries subgraphs) or no array: one MAC per unit per cycle.
                     Engine flatEngine = model instanceof DigitalArray || vectorEngine == null ? model.engine()
                             : vectorEngine;
@@ -120,6 +120,14 @@ public final class Estimator {
                     }
                 }
                 model.map(job, est[i]);
+                if (model instanceof CpuCores) {
+                    CpuCores cpu = (CpuCores) model;
+                    note(cpu.derivedNote(est[i].precision, false));
+                    if (nw.vectorOps() > 0) { // the same cores run the node's vector work after its MACs
+                        est[i].computeCycles += cpu.opCycles(nw.vectorOps(), est[i].precision);
+                        note(cpu.derivedNote(est[i].precision, true));
+                    }
+                }
                 est[i].macModel = model;
                 est[i].engine = model.engine().id();
                 est[i].job = job;
@@ -172,6 +180,9 @@ public final class Estimator {
             assumptions.add("the profile gives no DRAM bandwidth: DRAM time is not limiting");
         }
         List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
+        if (!device.energyKnown()) {
+            uniq.add("the profile gives no energies: energy and power are unknown");
+        }
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? sramWeightBytes : 0, totalWeights, p.activationPeak, dramPerFrame, uniq, reloaded);
     }
@@ -250,8 +261,50 @@ public final class Estimator {
         }
         e.sramReadBytes = in + weightBytes;
         e.sramWriteBytes = out;
-        e.computeCycles = Placement.ceilDiv(w.vectorOps(), engine.units());
+        if (array instanceof CpuCores && engine == arrayEngine) {
+            CpuCores cpu = (CpuCores) array;
+            e.computeCycles = w.vectorOps() == 0 ? 0 : cpu.opCycles(w.vectorOps(), e.precision);
+            if (w.vectorOps() > 0) {
+                note(cpu.derivedNote(e.precision, true));
+            }
+        } else {
+            e.computeCycles = Placement.ceilDiv(w.vectorOps(), engine.units());
+        }
         e.overheadSeconds = fusedIn ? 0 : engine.layerOverheadCycles() / device.clockHz();
+    }
+
+    private void note(String assumption) {
+        if (assumption != null) {
+            assumptions.add(assumption);
+        }
+    }
+
+    /**
+     * The on-chip level that serves a node's traffic: the SRAM, or on a processor the nearest cache
+     * that holds the node's working set (its activation inputs, weights and outputs), else the last.
+     */
+    private Memory onChipLevel(NodeWork w, NodeEstimate e) {
+        List<Memory> caches = device.caches();
+        if (caches.isEmpty()) {
+            return device.sram();
+        }
+        Node node = w.node();
+        long set = e.weightBytes;
+        for (int k = 0; k < node.inputCount(); k++) {
+            Value v = node.input(k);
+            if (v != null && !v.isConstant() && !s.isParam(node, k)) {
+                set += s.actBytes(v);
+            }
+        }
+        for (Value v : node.outputs()) {
+            set += s.actBytes(v);
+        }
+        for (Memory m : caches) {
+            if (set <= m.capacityBytes()) {
+                return m;
+            }
+        }
+        return caches.get(caches.size() - 1);
     }
 
     // ---- latency and energy ---------------------------------------------------------------
@@ -259,7 +312,9 @@ public final class Estimator {
     private void finish(NodeEstimate e, NodeWork w) {
         double hz = device.clockHz();
         e.computeSeconds = e.computeCycles / hz;
-        double sramBw = device.sram().bandwidth(hz);
+        Memory onChip = onChipLevel(w, e);
+        e.onChipLevel = onChip.id();
+        double sramBw = onChip.bandwidth(hz);
         double dramBw = device.dram().bandwidth(hz);
         e.sramSeconds = (e.sramReadBytes + e.sramWriteBytes) / sramBw;
         e.dramSeconds = (e.dramReadBytes + e.dramWriteBytes) / dramBw;
@@ -277,17 +332,21 @@ public final class Estimator {
             e.bound = Bound.NONE;
         }
         e.latencySeconds = t + e.overheadSeconds;
+        if (!device.energyKnown()) {
+            e.energy = Energy.UNKNOWN;
+            return;
+        }
         Energy macs = w.macs() > 0 && e.macModel != null ? e.macModel.price(e.job, e, pricing) : Energy.ZERO;
         double compute = macs.compute();
         if (w.vectorOps() > 0) {
             Engine eng = vectorEngine != null ? vectorEngine : arrayEngine;
-            compute += w.vectorOps() * pricing.fj(eng, e.precision, eng == vectorEngine ? "vector op" : "MAC")
-                    * Pricing.FJ;
+            String what = eng == vectorEngine || eng.cpu() != null ? "vector op" : "MAC";
+            compute += w.vectorOps() * pricing.fj(eng, e.precision, what) * Pricing.FJ;
         }
         Memory reg = device.registers();
         double regJ = reg == null ? 0
                 : (e.registerReadBytes * reg.readFjPerByte() + e.registerWriteBytes * reg.writeFjPerByte()) * Pricing.FJ;
-        Memory sram = device.sram();
+        Memory sram = onChip;
         double sramJ = (e.sramReadBytes * sram.readFjPerByte() + e.sramWriteBytes * sram.writeFjPerByte()) * Pricing.FJ;
         Memory dram = device.dram();
         double dramJ = (e.dramReadBytes * dram.readFjPerByte() + e.dramWriteBytes * dram.writeFjPerByte()) * Pricing.FJ;

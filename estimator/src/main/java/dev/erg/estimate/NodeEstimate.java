@@ -28,6 +28,7 @@ public final class NodeEstimate {
     Bound bound = Bound.NONE;
     Energy energy = Energy.ZERO;
     String fusedInto;
+    String onChipLevel;
     String tiling;
     boolean priced;
     DeployedPrecision deployed;
@@ -178,8 +179,22 @@ public final class NodeEstimate {
         return bound;
     }
 
+    /** Energy by destination; {@link Energy#UNKNOWN} when the profile gives no energies ({@link #energyKnown()}). */
     public Energy energy() {
         return energy;
+    }
+
+    /**
+     * The id of the on-chip memory level that serves the node's traffic: the SRAM, or on a processor the
+     * nearest cache level that holds its working set; null when the node does not run.
+     */
+    public String onChipLevel() {
+        return onChipLevel;
+    }
+
+    /** False when the profile gives no energies: {@link #energy()} is then {@link Energy#UNKNOWN} (NaN parts). */
+    public boolean energyKnown() {
+        return energy.known();
     }
 
     /** The MAC node this elementwise node runs fused behind, or null. */

@@ -69,10 +69,12 @@ public final class Pricing {
     }
 
     private double lookup(Engine engine, String precision, String what) {
-        Precisions.Lookup l = Precisions.lookup(engine.energyFj(), precision, engine.multiplyFraction());
+        boolean cpuOps = engine.cpu() != null && what.equals("vector op");
+        java.util.Map<String, Double> table = cpuOps ? engine.cpu().opEnergyFj() : engine.energyFj();
+        Precisions.Lookup l = Precisions.lookup(table, precision, cpuOps ? 0 : engine.multiplyFraction());
         if (l == null) {
             throw new BadInputException(device.id() + ": engine '" + engine.id() + "' lists no " + what
-                    + " energy from which " + precision + " can be derived (it lists " + engine.energyFj().keySet() + ")");
+                    + " energy from which " + precision + " can be derived (it lists " + table.keySet() + ")");
         }
         if (l.derived) {
             assumptions.add(what + " energy at " + precision + " on '" + engine.id() + "' is derived from " + l.from

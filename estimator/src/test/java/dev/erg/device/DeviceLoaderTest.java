@@ -38,7 +38,7 @@ class DeviceLoaderTest {
         }
         assertEquals(List.copyOf(files), DeviceLoader.presetIds());
         assertEquals(List.of("edge22-analog", "edge22-in-memory", "edge22-no-reuse", "edge22-reuse", "edge22-xnor",
-                "feeder-npu", "generic-45nm", "validation-65nm", "validation-in-memory-65nm"), DeviceLoader.presetIds());
+                "feeder-npu", "generic-45nm", "host-2core-example", "validation-65nm", "validation-in-memory-65nm"), DeviceLoader.presetIds());
     }
 
     @ParameterizedTest
@@ -186,6 +186,25 @@ class DeviceLoaderTest {
         String doc = Files.readString(root.resolve("docs/profiles.md"), StandardCharsets.UTF_8);
         String example = Files.readString(root.resolve("docs/examples/example-device.yaml"), StandardCharsets.UTF_8);
         assertTrue(doc.contains("```yaml\n" + example + "```"), "docs/profiles.md must embed example-device.yaml");
+    }
+
+    /** The processor preset loads with its caches nearest first, no energies, and is shown verbatim in the reference. */
+    @Test
+    void theHostPresetIsACpuWithCachesAndIsShownVerbatim() throws Exception {
+        Path root = TestFiles.repoRoot();
+        String doc = Files.readString(root.resolve("docs/profiles.md"), StandardCharsets.UTF_8);
+        assertTrue(doc.contains("```yaml\n" + TestFiles.presetText("host-2core-example") + "```"),
+                "docs/profiles.md must embed host-2core-example.yaml");
+        DeviceProfile p = DeviceLoader.load("preset:host-2core-example", null);
+        Engine cpu = p.engines().get(0);
+        assertEquals(Engine.Kind.CPU, cpu.kind());
+        assertEquals(2, cpu.cpu().cores());
+        assertEquals(16.0, cpu.cpu().macsPerCycle().get("fp32"));
+        assertEquals(List.of("l1", "l2", "l3"), p.caches().stream().map(Memory::id).toList());
+        assertEquals(64 * 1024, p.caches().get(0).capacityBytes());
+        assertEquals(8L << 20, p.sram().capacityBytes()); // the last cache is the on-chip capacity
+        assertEquals(20e9, p.dram().bandwidth(p.clockHz()));
+        assertFalse(p.energyKnown());
     }
 
     /** The examples of the new engine kinds load, carry their keys, and appear verbatim in docs/profiles.md. */

@@ -53,6 +53,33 @@ class DeviceProfileSchemaTest {
         assertEquals("https://json-schema.org/draft/2020-12/schema", s.get("$schema").asText());
     }
 
+    /** The precision labels the schema lists are the numeric element types of the ONNX standard, as erg names them. */
+    @Test
+    void thePrecisionLabelsAreTheNumericElementTypes() {
+        Set<String> labels = new java.util.TreeSet<>();
+        for (dev.erg.onnx.ElemType t : dev.erg.onnx.ElemType.values()) {
+            if ((t.isFloat() || t.isInteger()) && t != dev.erg.onnx.ElemType.BOOL) {
+                labels.add(t.label);
+            }
+        }
+        Set<String> listed = new java.util.TreeSet<>();
+        ProfileSchema.schemaJson().at("/$defs/precision/anyOf/0/enum").forEach(n -> listed.add(n.asText()));
+        assertEquals(labels, listed);
+    }
+
+    /** Every fault of a file is reported at once, on one line: "N faults: a; b; c", in line order. */
+    @Test
+    void everyFaultOfAFileIsReportedAtOnce() {
+        String text = DeviceLoaderErrorsTest.BASE.stream().map(l -> l.equals("clock-mhz: 200") ? "clock-mhz: fast"
+                : l.equals("    rows: 16") ? "    rows: 2.5" : l.equals("    read-energy-fj-per-byte: 120")
+                ? "    read-energy-fj-per-byte: -1" : l).collect(java.util.stream.Collectors.joining("\n", "", "\n"));
+        BadInputException e = assertThrows(BadInputException.class,
+                () -> DeviceLoader.parse("bad.yaml", text.getBytes(StandardCharsets.UTF_8), false));
+        assertEquals("3 faults: bad.yaml:2: clock-mhz: must be a number (got text \"fast\"); "
+                + "bad.yaml:6: engines[0].rows: must be a whole number (got 2.5); "
+                + "bad.yaml:17: memories[0].read-energy-fj-per-byte: must not be negative (got -1)", e.getMessage());
+    }
+
     static List<String> presets() {
         return DeviceLoader.presetIds();
     }
@@ -127,7 +154,27 @@ class DeviceProfileSchemaTest {
             Arguments.of("both bandwidths",
                     DeviceLoaderErrorsTest.insert(18, "    bytes-per-cycle: 8", "    gbytes-per-second: 1")),
             Arguments.of("negative static power", DeviceLoaderErrorsTest.insert(2, "static-power-mw: -1")),
-            Arguments.of("source not text", DeviceLoaderErrorsTest.insert(21, "sources:", "  clock-mhz: 5")));
+            Arguments.of("source not text", DeviceLoaderErrorsTest.insert(21, "sources:", "  clock-mhz: 5")),
+            Arguments.of("cache without capacity", CPU.replace("    capacity-kib: 64\n", "")),
+            Arguments.of("cache beside sram", CPU.replace("  - id: dram", "  - id: sram\n    capacity-kib: 1\n"
+                    + "    read-energy-fj-per-byte: 1\n    write-energy-fj-per-byte: 1\n  - id: dram")),
+            Arguments.of("cpu without rates", CPU.replace("    macs-per-cycle-per-core: { fp32: 16 }\n", "")),
+            Arguments.of("cpu rate zero", CPU.replace("{ fp32: 16 }", "{ fp32: 0 }")),
+            Arguments.of("cpu mac energy without op energy", CPU.replace("    cores: 2\n",
+                    "    cores: 2\n    mac-energy-fj: { fp32: 900 }\n")),
+            Arguments.of("memory energies on a mac-array profile are required",
+                    DeviceLoaderErrorsTest.replace(20)));
+    }
+
+    /** A valid processor profile without energies (example values). */
+    static final String CPU = "name: host\nclock-mhz: 2000\nengines:\n  - id: cpu\n    kind: cpu\n    cores: 2\n"
+            + "    macs-per-cycle-per-core: { fp32: 16 }\nmemories:\n  - id: l1\n    level: cache\n"
+            + "    capacity-kib: 64\n    bytes-per-cycle: 64\n  - id: dram\n    gbytes-per-second: 20\n";
+
+    @Test
+    void aProcessorProfileWithoutEnergiesIsValid() throws Exception {
+        assertTrue(validate(CPU).isEmpty(), validate(CPU).toString());
+        assertFalse(DeviceLoader.parse("cpu.yaml", CPU.getBytes(StandardCharsets.UTF_8), false).energyKnown());
     }
 
     @ParameterizedTest(name = "{0}")

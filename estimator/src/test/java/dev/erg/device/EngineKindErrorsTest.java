@@ -35,8 +35,41 @@ class EngineKindErrorsTest {
         return macro(lines);
     }
 
+    private static final String CACHES = "memories:\n  - id: l1\n    level: cache\n    capacity-kib: 32\n"
+            + "    bytes-per-cycle: 64\n  - id: dram\n    gbytes-per-second: 10\n";
+
+    private static String cpu(String... lines) {
+        StringBuilder b = new StringBuilder("name: t\nclock-mhz: 1000\nengines:\n  - id: c\n    kind: cpu\n");
+        for (String l : lines) {
+            b.append("    ").append(l).append('\n');
+        }
+        return b.toString();
+    }
+
     static Stream<Arguments> cases() {
         return Stream.of(
+                Arguments.of(cpu("cores: 2") + CACHES,
+                        "p.yaml:4: engines[0].macs-per-cycle-per-core: missing (a cpu needs cores and "
+                                + "macs-per-cycle-per-core)"),
+                Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 0 }") + CACHES,
+                        "p.yaml:7: engines[0].macs-per-cycle-per-core.fp32: must be greater than 0 (got 0)"),
+                Arguments.of(cpu("cores: 2", "macs-per-cycle: { fp32: 16 }") + CACHES,
+                        "p.yaml:7: engines[0].macs-per-cycle: no unit; write macs-per-cycle-per-core"),
+                Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }", "mac-energy-fj: { fp32: 900 }")
+                                + CACHES,
+                        "p.yaml:4: engines[0].op-energy-fj: missing (give op-energy-fj or op-energy-pj)"),
+                Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }", "mac-energy-fj: { fp32: 900 }",
+                                "op-energy-fj: { fp32: 90 }") + CACHES,
+                        "p.yaml:11: memories[0].read-energy-fj-per-byte: missing (give every energy of the profile or "
+                                + "none: a processor profile without energies has its energy reported as unknown)"),
+                Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }") + CACHES.replace(
+                                "  - id: dram", "  - id: sram\n    capacity-kib: 64\n  - id: dram"),
+                        "p.yaml:13: memories[1]: an sram level beside cache levels (a profile has one sram or cache "
+                                + "levels)"),
+                Arguments.of(cpu("cores: 2", "macs-per-cycle-per-core: { fp32: 16 }") + CACHES.replace(
+                                "    bytes-per-cycle: 64\n", "    bytes-per-cycle: 64\n    gbytes-per-second: 100\n"),
+                        "p.yaml:13: memories[0].gbytes-per-second: give bytes-per-cycle or gbytes-per-second, not both "
+                                + "(bytes-per-cycle is on line 12)"),
                 Arguments.of(macro("row-drive-energy-fj: 10", "column-energy-fj: 20", "converter-bits: 8",
                         "cell-write-energy-fj: 2", "shift-add-energy-fj: 5"),
                         "p.yaml:4: engines[0].conversion-energy-fj: missing (an in-memory-macro needs rows, columns, "
@@ -57,8 +90,8 @@ class EngineKindErrorsTest {
                 Arguments.of("name: t\nclock-mhz: 100\nengines:\n  - id: a\n    kind: mac-array\n    rows: 8\n"
                         + "    columns: 8\n    dataflow: weight-stationary\n    mac-energy-fj: { int8: 50 }\n"
                         + "    xnor-energy-fj: 0.1\n" + MEMORIES,
-                        "p.yaml:10: engines[0].popcount-energy-fj: missing (a 1-bit MAC is priced from xnor-energy-fj "
-                                + "and popcount-energy-fj together)"),
+                        "p.yaml:10: engines[0].popcount-energy-fj: missing (give xnor-energy-fj and popcount-energy-fj "
+                                + "together)"),
                 Arguments.of("name: t\nclock-mhz: 100\nengines:\n  - id: a\n    kind: analog-sum-array\n    rows: 8\n"
                         + "    columns: 8\n    multiply-energy-fj: { int8: 50 }\n    accumulation-energy-fj: 1\n"
                         + "    conversion-energy-fj: 100\n    converter-bits: 40\n    partial-add-energy-fj: 5\n" + MEMORIES,
