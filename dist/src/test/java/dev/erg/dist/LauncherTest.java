@@ -127,7 +127,8 @@ class LauncherTest {
         // Broken: not an archive at all, but stamped as current. The JVM must fall back in silence.
         Files.write(jsa, new byte[] {1, 2, 3, 4, 5, 6, 7, 8});
         Files.writeString(home.resolve("lib/erg.jsa.java"), Path.of(System.getProperty("java.home"), "bin", "java") + "\n");
-        FileTime later = FileTime.fromMillis(System.currentTimeMillis() + 60_000);
+        // One minute past the newest jar, so that the launcher takes the archive as current.
+        FileTime later = FileTime.from(Files.getLastModifiedTime(home.resolve("lib/erg.classlist")).toInstant().plusSeconds(60));
         Files.setLastModifiedTime(jsa, later);
         assertEquals(new Run(0, expected, ""), launch(home.resolve("bin/erg"), Map.of(), "analyze", model));
         assertEquals(8, Files.size(jsa), "an archive newer than the jars is taken as current");
