@@ -102,8 +102,10 @@ final class Figures {
 
     /**
      * Peak MACs per second of {@link #macEngine()}. A mac-array or analog-sum-array does one MAC per cell
-     * per cycle, a vector unit one per lane. An in-memory macro's cells do one MAC per {@code s x c_in}
-     * cell-cycles (docs/method.md, section 7), at the precision of {@link #peakPrecision()}.
+     * per cycle, a vector unit one per lane. An in-memory macro does {@code count x rows-active x columns
+     * / (s x c_in)} MACs per cycle: the rows driven at once, the weight bits sliced over {@code s} columns,
+     * inputs applied over {@code c_in} cycles (docs/method.md, section 7), at the precision of
+     * {@link #peakPrecision()}.
      */
     double peakMacsPerSecond() {
         Engine e = macEngine();
@@ -115,7 +117,8 @@ final class Figures {
             Engine.Macro mc = e.macro();
             long slices = Math.max(1, (wa[0] + mc.bitsPerCell() - 1) / mc.bitsPerCell());
             long inCycles = Math.max(1, (wa[1] + mc.inputBitsPerCycle() - 1) / mc.inputBitsPerCycle());
-            return (double) e.units() / (slices * inCycles) * profile().clockHz();
+            long rowsAtOnce = Math.min(mc.rowsActive(), e.rows());
+            return (double) mc.count() * rowsAtOnce * e.columns() / (slices * inCycles) * profile().clockHz();
         }
         return e.units() * profile().clockHz();
     }
