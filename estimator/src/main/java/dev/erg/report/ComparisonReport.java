@@ -98,7 +98,14 @@ public final class ComparisonReport {
             Map<String, String> r = Comparison.row(f);
             List<Map<String, Object>> cells = new ArrayList<>();
             for (String[] col : Comparison.COLUMNS) {
-                cells.add(Map.of("value", Html.text(r.get(col[0])), "left", !isNumber(col[0])));
+                Map<String, Object> cell = new LinkedHashMap<>();
+                cell.put("value", Html.text(r.get(col[0])));
+                cell.put("left", !isNumber(col[0]));
+                if (col[0].equals("device")) {
+                    // The pair's own page, written beside this one (Reports.write, html format).
+                    cell.put("href", Html.text(Reports.stem(c.model, f.device) + ".html"));
+                }
+                cells.add(cell);
             }
             String verdict = r.get("verdict");
             rows.add(Map.of("cells", cells, "rowClass", verdict.equals("FAIL") ? "bad" : verdict.equals("AT RISK")

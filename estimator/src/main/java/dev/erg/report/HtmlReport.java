@@ -82,6 +82,15 @@ public final class HtmlReport {
         v.put("model", Html.text(f.model));
         v.put("device", Html.text(f.device));
         v.put("clockMhz", Format.sig(f.profile().clockMhz()));
+        int devices = 0;
+        for (PairResult p : result == null ? List.<PairResult>of() : result.pairs()) {
+            devices += p.model().equals(f.model) ? 1 : 0;
+        }
+        if (devices > 1) {
+            // The page sits beside the model's comparison page (Reports.write writes both with the html format).
+            v.put("compareHref", Html.text(Reports.compareStem(f.model) + ".html"));
+            v.put("compareCount", devices);
+        }
         verdict(v, f.pair);
         v.put("notice", AnalysisJson.NOTICE);
         List<Map<String, Object>> checks = new ArrayList<>();

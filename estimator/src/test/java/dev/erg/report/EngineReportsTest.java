@@ -216,11 +216,17 @@ class EngineReportsTest {
         String html = Files.readString(dir.resolve("kws.compare.html"));
         assertTrue(html.contains("<svg id=\"chart-compare\""), "destination chart");
         assertTrue(html.contains("<th class=\"l\">dominant</th>"), "column");
+        // The comparison and the pair pages link to each other (they are written side by side).
+        assertTrue(html.contains("<a href=\"kws.edge22-in-memory.html\">preset:edge22-in-memory</a>"), "pair link");
+        assertTrue(Files.readString(dir.resolve("kws.edge22-reuse.html")).contains(
+                "<a href=\"kws.compare.html\" id=\"compare-link\">this model on all 2 devices</a>"), "comparison link");
         String console = Reports.console(r);
         assertTrue(console.contains("\nmodels/kws.onnx on 2 devices\n"), console);
         // One device: no comparison.
         GateResult one = Gates.run(List.of(new ModelSpec("models/kws.onnx", KWS)), List.of(preset("edge22-reuse")),
                 Budget.none());
         assertFalse(Reports.console(one).contains("on 2 devices"));
+        Reports.write(one, dir.resolve("one"), java.util.Set.of("html"));
+        assertFalse(Files.readString(dir.resolve("one/kws.edge22-reuse.html")).contains("compare-link"));
     }
 }
