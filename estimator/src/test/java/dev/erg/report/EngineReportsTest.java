@@ -105,7 +105,7 @@ class EngineReportsTest {
                 + " | SRAM | DRAM | conversion | cell writes | row drive | static | total | share | bound |"), md);
         assertTrue(md.contains("| `/rnn/LSTM_1` | `LSTM` | w4a8 | override | "), md);
         String html = Files.readString(dir.resolve("kws.edge22-in-memory.html"));
-        assertTrue(html.contains(">w4a8<div class=\"note\">override</div></td>"), "precision cell in the HTML table");
+        assertTrue(html.contains(">w4a8 <span class=\"muted\">override</span></td>"), "precision cell in the HTML table");
         assertTrue(html.contains("<th>conversion</th><th>cell writes</th><th>row drive</th>"), "energy columns");
         JsonNode json = new ObjectMapper().readTree(dir.resolve("kws.edge22-in-memory.json").toFile());
         JsonNode lstm1 = null;
