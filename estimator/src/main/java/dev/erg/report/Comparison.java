@@ -74,18 +74,26 @@ final class Comparison {
         r.put("name", f.profile().name());
         Engine a = f.macEngine();
         r.put("engine", a == null ? "-" : a.kind().key);
-        r.put("energyPerMac", e.workload().macs() == 0 ? "-" : Format.sig(e.energyPerMacJoules() * 1e15) + " fJ");
-        r.put("topsPerWatt", e.workload().macs() == 0 ? "-" : Format.sig(e.opsPerWatt() / 1e12));
-        r.put("utilisation", e.workload().macs() == 0 ? "-" : Format.percent(e.macUtilization()));
-        r.put("dominant", Figures.label(e.energy().dominant()));
+        // A profile that prices no energy gives NaN energies: those cells say "n/a", as Numbers.sig does.
+        boolean priced = !Double.isNaN(e.energyPerFrameJoules());
+        boolean macs = e.workload().macs() > 0;
+        r.put("energyPerMac", !macs ? "-" : priced ? Format.sig(e.energyPerMacJoules() * 1e15) + " fJ" : "n/a");
+        r.put("topsPerWatt", !macs ? "-" : priced ? Format.sig(e.opsPerWatt() / 1e12) : "n/a");
+        r.put("utilisation", macs ? Format.percent(e.macUtilization()) : "-");
+        r.put("dominant", priced ? Figures.label(e.energy().dominant()) : "n/a");
         r.put("maxFps", Format.sig(e.maxFps()) + " fps");
-        r.put("power", Format.sig(f.averagePowerWatts() * 1e3) + " mW at " + Format.sig(f.fps) + " fps");
-        r.put("energyPerFrame", Format.sig(e.energyPerFrameJoules() * 1e6) + " µJ");
+        r.put("power", priced ? Format.sig(f.averagePowerWatts() * 1e3) + " mW at " + Format.sig(f.fps) + " fps" : "n/a");
+        r.put("energyPerFrame", priced ? Format.sig(e.energyPerFrameJoules() * 1e6) + " µJ" : "n/a");
         r.put("weights", f.estimate.weightsReloadedEachFrame() ? "reloaded every frame"
                 : f.weightsInCells() ? "in the macro cells" : e.weightsResident() ? "resident in SRAM"
                 : "streamed from DRAM");
         r.put("verdict", verdict(f));
         return r;
+    }
+
+    /** An energy in µJ ("n/a" when the profile prices none). */
+    static String uj(double joules) {
+        return Format.sig(joules * 1e6);
     }
 
     /** The pair's verdict in a word: PASS, AT RISK, FAIL, or "not checked". */

@@ -66,9 +66,9 @@ public final class ComparisonReport {
             Energy e = f.estimate.energy();
             b.append("| ").append(MarkdownReport.code(f.device)).append(" |");
             for (Energy.Destination d : dests) {
-                b.append(' ').append(Format.sig(e.of(d) * 1e6)).append(" |");
+                b.append(' ').append(Comparison.uj(e.of(d))).append(" |");
             }
-            b.append(' ').append(Format.sig(e.total() * 1e6)).append(" |\n");
+            b.append(' ').append(Comparison.uj(e.total())).append(" |\n");
         }
         b.append("\n> ").append(MarkdownReport.text(AnalysisJson.NOTICE)).append('\n');
         return b.toString();
@@ -130,11 +130,12 @@ public final class ComparisonReport {
             List<String> cells = new ArrayList<>();
             double[] parts = new double[dests.size()];
             for (int i = 0; i < parts.length; i++) {
-                parts[i] = e.of(dests.get(i)) * 1e6;
-                cells.add(Format.sig(parts[i]));
+                double v = e.of(dests.get(i)) * 1e6;
+                parts[i] = Double.isNaN(v) ? 0 : v; // a profile without energies draws no segment
+                cells.add(Comparison.uj(e.of(dests.get(i))));
             }
             energyRows.add(Map.of("device", Html.text(f.device), "cells", cells, "total",
-                    Format.sig(e.total() * 1e6)));
+                    Comparison.uj(e.total())));
             bars.add(new BarChart.Bar(f.device, f.device + " (" + f.profile().name() + ")", parts, colours, names,
                     false));
         }

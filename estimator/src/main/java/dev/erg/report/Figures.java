@@ -159,8 +159,10 @@ final class Figures {
                 return n + " in-memory macro" + (n == 1 ? "" : "s") + " of " + a.rows() + "×" + a.columns()
                         + " cells, " + a.macro().bitsPerCell() + " bit" + (a.macro().bitsPerCell() == 1 ? "" : "s")
                         + " per cell";
-            default:
+            case VECTOR:
                 return "a " + a.lanes() + "-lane vector unit";
+            default:
+                return "the " + a.kind().key + " engine '" + a.id() + "'";
         }
     }
 
