@@ -130,8 +130,8 @@ public final class ComparisonReport {
             List<String> cells = new ArrayList<>();
             double[] parts = new double[dests.size()];
             for (int i = 0; i < parts.length; i++) {
-                double v = e.of(dests.get(i)) * 1e6;
-                parts[i] = Double.isNaN(v) ? 0 : v; // a profile without energies draws no segment
+                double uj = e.of(dests.get(i)) * 1e6;
+                parts[i] = Double.isNaN(uj) ? 0 : uj; // a profile without energies draws no segment
                 cells.add(Comparison.uj(e.of(dests.get(i))));
             }
             energyRows.add(Map.of("device", Html.text(f.device), "cells", cells, "total",
