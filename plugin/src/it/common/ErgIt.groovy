@@ -82,7 +82,7 @@ void notLogged(String fragment) {
 // ---- the library's view of the same configuration -------------------------------------------
 
 /**
- * Evaluates what the pom configures: models ([file: 'x.onnx', dims: [batch: 1]]), devices, budget
+ * Evaluates what the pom configures: models ([file: 'x.onnx', dims: [batch: 1], precision: ['conv*=w4a8']]), devices, budget
  * (a map of the budget's element names), baseline (path or null) and growth (percent); base, the
  * module folder (relative to the project) that paths are relative to.
  */
@@ -90,7 +90,8 @@ GateResult gate(Map cfg) {
     def base = cfg.base ? new File(basedir, cfg.base).toPath() : basedir.toPath() // base: a module's folder
     def req = RunRequest.builder().deviceBase(base)
     cfg.models.each { m ->
-        req.model(new ModelSpec(m.file, base.resolve(m.file), (m.dims ?: [:]).collectEntries { k, v -> [k, v as Long] }))
+        req.model(new ModelSpec(m.file, base.resolve(m.file), (m.dims ?: [:]).collectEntries { k, v -> [k, v as Long] })
+                .withPrecision((m.precision ?: []) as List<String>))
     }
     cfg.devices.each { req.device(it) }
     def b = Budget.builder()

@@ -90,6 +90,9 @@ final class CheckCommand implements Callable<Integer> {
     @CommandLine.Mixin
     ModelOptions modelOptions = new ModelOptions();
 
+    @CommandLine.Mixin
+    PrecisionOptions precision = new PrecisionOptions();
+
     @Option(names = "--top", paramLabel = "N", defaultValue = "" + ConsoleReport.DEFAULT_TOP,
             description = "How many layers the console lists per pair, most energy first (default: ${DEFAULT-VALUE}).")
     int top;
@@ -130,6 +133,7 @@ final class CheckCommand implements Callable<Integer> {
     /** The options as the library's run request; a malformed option is a usage error. */
     RunRequest request() {
         dev.erg.graph.InputBindings bindings = modelOptions.bindings(spec);
+        dev.erg.workload.PrecisionOverrides rules = precision.parsed(spec);
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
@@ -154,7 +158,7 @@ final class CheckCommand implements Callable<Integer> {
                 .maxActivationKib(maxActivationKib).build();
         List<ModelSpec> specs = new ArrayList<>();
         for (Path m : models) {
-            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings));
+            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings).withPrecision(rules));
         }
         RunRequest.Builder b = RunRequest.builder().failOnUnmodelled(modelOptions.failOnUnmodelled)
                 .failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);

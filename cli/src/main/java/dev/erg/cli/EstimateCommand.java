@@ -37,6 +37,9 @@ final class EstimateCommand implements Callable<Integer> {
     @CommandLine.Mixin
     ModelOptions modelOptions = new ModelOptions();
 
+    @CommandLine.Mixin
+    PrecisionOptions precision = new PrecisionOptions();
+
     @Option(names = "--json", paramLabel = "FILE", description = "Also writes the estimate as JSON to FILE.")
     Path json;
 
@@ -54,9 +57,10 @@ final class EstimateCommand implements Callable<Integer> {
         if (top < 0) {
             throw Options.usage(spec, "--top must be 0 or more, not " + top);
         }
+        dev.erg.workload.PrecisionOverrides rules = precision.parsed(spec);
         DeviceProfile profile = DeviceLoader.load(device, null);
         ModelWorkload w = Analyzer.analyze(model, modelOptions.bindings(spec), dev.erg.analysis.AnalysisOptions.DEFAULTS);
-        DeviceEstimate e = Estimator.estimate(w, profile);
+        DeviceEstimate e = Estimator.estimate(w, profile, rules);
         PrintWriter out = spec.commandLine().getOut();
         out.print(ConsoleReport.estimate(e, fps, top));
         if (json != null) {
@@ -68,6 +72,10 @@ final class EstimateCommand implements Callable<Integer> {
             out.println("JSON written to " + json);
         }
         for (String n : Analyzer.unusedDimNotes(w, bound)) {
+            out.println("note: " + n);
+        }
+        for (String n : dev.erg.run.Runner.unmatchedRules(new dev.erg.run.ModelSpec(model.toString(), model)
+                .withPrecision(rules), w)) {
             out.println("note: " + n);
         }
         out.flush();

@@ -29,7 +29,7 @@ class EstimateCommandTest {
         assertEquals("", r.err);
         assertTrue(r.out.startsWith(model + " on " + device + " (Worked example device, 100 MHz)\nAll 1 layer by energy"),
                 r.out);
-        assertTrue(r.out.matches("(?s).*\n1  conv +Conv +115k +100\\.0% +74\\.7 .* 0\\.147 +100\\.0% +sram\n.*"), r.out);
+        assertTrue(r.out.matches("(?s).*\n1  conv +Conv +w8a8 +profile default +115k +100\\.0% +74\\.7 .* 0\\.147 +100\\.0% +sram\n.*"), r.out);
         assertTrue(r.out.contains("Totals: latency 0.0747 ms, max 13383 fps, 147 nJ per frame, 1.07 mW at 1000 fps\n"),
                 r.out);
         assertTrue(r.out.contains("JSON written to " + json), r.out);

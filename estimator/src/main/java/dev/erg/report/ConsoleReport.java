@@ -7,6 +7,7 @@ import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Energy;
 import dev.erg.estimate.NodeEstimate;
 import dev.erg.workload.Kind;
+import java.util.ArrayList;
 import java.util.List;
 
 /**
@@ -30,6 +31,7 @@ public final class ConsoleReport {
             b.append(pair(p, top)).append('\n');
             checks += p.checks().size();
         }
+        b.append(ComparisonReport.console(result));
         if (checks == 0) {
             b.append("erg: no budget and no baseline growth to check\n");
         } else {
@@ -105,16 +107,33 @@ public final class ConsoleReport {
         } else {
             b.append(shown.size() == ranked.size() ? "All " + plural(ranked.size(), "layer")
                     : "Top " + shown.size() + " of " + ranked.size() + " layers").append(" by energy (energy in µJ)\n");
-            TextTable t = new TextTable(">#", "layer", "op", ">MACs", ">utilisation", ">latency µs", ">compute", ">registers",
-                    ">SRAM", ">DRAM", ">static", ">total", ">share", "bound");
+            List<Energy.Destination> dests = f.destinations();
+            boolean reload = e.weightsReloadedEachFrame();
+            List<String> heads = new ArrayList<>(List.of(">#", "layer", "op", "precision", "from", ">MACs",
+                    ">utilisation", ">latency µs"));
+            for (Energy.Destination d : dests) {
+                heads.add(">" + Figures.label(d));
+            }
+            heads.addAll(List.of(">total", ">share", "bound"));
+            if (reload) {
+                heads.add("weights");
+            }
+            TextTable t = new TextTable(heads.toArray(new String[0]));
             int rank = 0;
             for (NodeEstimate n : shown) {
                 Energy en = n.energy();
-                t.row(Integer.toString(++rank), plain(AnalysisTable.shorten(n.name(), AnalysisTable.NAME_WIDTH)),
-                        plain(n.work().opType()), Format.count(n.work().macs()), utilisation(n),
-                        Format.sig(n.latencySeconds() * 1e6), uj(en.compute()), uj(en.registers()), uj(en.sram()),
-                        uj(en.dram()), uj(en.staticEnergy()), uj(en.total()), Format.percent(f.energyShare(n)),
-                        bound(n));
+                List<String> cells = new ArrayList<>(List.of(Integer.toString(++rank),
+                        plain(AnalysisTable.shorten(n.name(), AnalysisTable.NAME_WIDTH)), plain(n.work().opType()),
+                        precision(n), origin(n), Format.count(n.work().macs()), utilisation(n),
+                        Format.sig(n.latencySeconds() * 1e6)));
+                for (Energy.Destination d : dests) {
+                    cells.add(uj(en.of(d)));
+                }
+                cells.addAll(List.of(uj(en.total()), Format.percent(f.energyShare(n)), bound(n)));
+                if (reload) {
+                    cells.add(n.weightsReloaded() ? "reloaded" : "");
+                }
+                t.row(cells.toArray(new String[0]));
             }
             t.appendTo(b, "");
         }
@@ -125,7 +144,10 @@ public final class ConsoleReport {
         b.append("Energy: ").append(f.energySplit()).append('\n');
         long cap = f.profile().sram().capacityBytes();
         b.append("Memory: weights ").append(Format.bytes(e.weightBytes()))
-                .append(e.weightsResident() ? " resident" : " streamed per frame").append(", peak activations ")
+                .append(e.weightsReloadedEachFrame() ? " reloaded into the in-memory macros every frame"
+                        : f.weightsInCells() ? " in the in-memory macro cells"
+                                + (e.weightsResident() ? "" : ", the rest streamed per frame")
+                        : e.weightsResident() ? " resident" : " streamed per frame").append(", peak activations ")
                 .append(Format.bytes(e.activationPeakBytes())).append(", SRAM ").append(Format.bytes(cap))
                 .append("; DRAM ").append(Format.bytes(e.dramBytesPerFrame())).append(" per frame\n");
         for (String a : e.assumptions()) {
@@ -150,6 +172,16 @@ public final class ConsoleReport {
 
     static String utilisation(NodeEstimate n) {
         return n.work().macs() > 0 ? Format.percent(n.utilization()) : "-";
+    }
+
+    /** The node's deployed precision, {@code w4a8}; "-" when it is not priced. */
+    static String precision(NodeEstimate n) {
+        return n.deployed() == null ? "-" : n.deployed().label();
+    }
+
+    /** Where the node's precision came from: "model", "override" or "profile default"; "-" when not priced. */
+    static String origin(NodeEstimate n) {
+        return n.deployed() == null ? "-" : n.deployed().origin().label;
     }
 
     static String bound(NodeEstimate n) {

@@ -11,6 +11,7 @@ import dev.erg.budget.PairResult;
 import dev.erg.device.DeviceProfile;
 import dev.erg.device.Engine;
 import dev.erg.device.Memory;
+import dev.erg.estimate.DeployedPrecision;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Energy;
 import dev.erg.estimate.NodeEstimate;
@@ -30,13 +31,17 @@ import java.nio.file.Path;
  * <pre>
  * { "model": {...}, "totals": { ...analysis..., then
  *       "latencySeconds", "maxFps", "energyPerFrameJoules", "averagePowerWatts", "fps",
- *       "energyJoules": { "compute", "registers", "sram", "dram", "static", "total" },
+ *       "energyJoules": { "compute", "registers", "sram", "dram", "conversion", "cellWrites", "rowDrive",
+ *                         "static", "total", "accumulation" (the part of compute spent summing) },
  *       "weightsResident", "residentWeightBytes", "deviceWeightBytes", "deviceActivationPeakBytes",
- *       "dramBytesPerFrame" },
+ *       "dramBytesPerFrame", "weightsReloadedEachFrame", "energyPerMacJoules", "opsPerWatt",
+ *       "macUtilisation", "dominantDestination" },
  *   "nodes": [ { ...analysis..., then, for a node that runs on the device,
- *       "estimate": { "engine", "precision", "latencySeconds", "utilisation", "bound", "computeCycles",
+ *       "estimate": { "engine", "precision",
+ *                     "deployed": { "label", "weightBits", "activationBits", "origin" }, "weightsReloaded",
+ *                     "latencySeconds", "utilisation", "bound", "computeCycles",
  *                     "bytes": { "registerRead", "registerWrite", "sramRead", "sramWrite", "dramRead", "dramWrite" },
- *                     "energyJoules": { "compute", "registers", "sram", "dram", "static", "total" },
+ *                     "energyJoules": { ...as in the totals... },
  *                     "fusedInto"?, "tiling"?,
  *                     "seconds": { "compute", "sram", "dram", "overhead" } } } ],
  *   "unmodelled", "unresolved", "notice",
@@ -107,8 +112,12 @@ public final class EstimateJson {
         num(g, "registers", e.registers());
         num(g, "sram", e.sram());
         num(g, "dram", e.dram());
+        num(g, "conversion", e.conversion());
+        num(g, "cellWrites", e.cellWrites());
+        num(g, "rowDrive", e.rowDrive());
         num(g, "static", e.staticEnergy());
         num(g, "total", e.total());
+        num(g, "accumulation", e.accumulation());
         g.writeEndObject();
     }
 
@@ -135,6 +144,11 @@ public final class EstimateJson {
             g.writeNumberField("deviceWeightBytes", e.weightBytes());
             g.writeNumberField("deviceActivationPeakBytes", e.activationPeakBytes());
             g.writeNumberField("dramBytesPerFrame", e.dramBytesPerFrame());
+            g.writeBooleanField("weightsReloadedEachFrame", e.weightsReloadedEachFrame());
+            num(g, "energyPerMacJoules", e.energyPerMacJoules());
+            num(g, "opsPerWatt", e.opsPerWatt());
+            num(g, "macUtilisation", e.macUtilization());
+            g.writeStringField("dominantDestination", e.energy().dominant().key);
         }
 
         @Override
@@ -149,6 +163,16 @@ public final class EstimateJson {
             g.writeObjectFieldStart("estimate");
             g.writeStringField("engine", n.engine());
             g.writeStringField("precision", n.precision());
+            if (n.deployed() != null) {
+                DeployedPrecision dp = n.deployed();
+                g.writeObjectFieldStart("deployed");
+                g.writeStringField("label", dp.label());
+                g.writeNumberField("weightBits", dp.weightBits());
+                g.writeNumberField("activationBits", dp.activationBits());
+                g.writeStringField("origin", dp.origin().label);
+                g.writeEndObject();
+            }
+            g.writeBooleanField("weightsReloaded", n.weightsReloaded());
             num(g, "latencySeconds", n.latencySeconds());
             num(g, "utilisation", n.utilization());
             g.writeStringField("bound", n.bound().label);
@@ -205,10 +229,15 @@ public final class EstimateJson {
                 g.writeStartObject();
                 g.writeStringField("id", e.id());
                 g.writeStringField("kind", e.kind().key);
-                if (e.kind() == Engine.Kind.MAC_ARRAY) {
+                if (e.isArray()) {
                     g.writeNumberField("rows", e.rows());
                     g.writeNumberField("columns", e.columns());
-                    g.writeStringField("dataflow", e.dataflow() == null ? null : e.dataflow().key);
+                    if (e.kind() == Engine.Kind.MAC_ARRAY) {
+                        g.writeStringField("dataflow", e.dataflow() == null ? null : e.dataflow().key);
+                    }
+                    if (e.macro() != null) {
+                        g.writeNumberField("macros", e.macro().count());
+                    }
                 } else {
                     g.writeNumberField("lanes", e.lanes());
                 }

@@ -86,16 +86,140 @@ final class Figures {
         return t > 0 ? n.energy().total() / t : 0;
     }
 
-    /** The MAC array (or, without one, the vector unit) that the roofline's compute roof describes. */
+    /**
+     * The engine that runs the MAC layers and that the roofline's compute roof describes: the first
+     * array of any kind (mac-array, analog-sum-array, in-memory-macro), as the estimator picks it; the
+     * vector unit without one.
+     */
     Engine macEngine() {
-        Engine a = profile().first(Engine.Kind.MAC_ARRAY);
-        return a != null ? a : profile().first(Engine.Kind.VECTOR);
+        for (Engine e : profile().engines()) {
+            if (e.isArray()) {
+                return e;
+            }
+        }
+        return profile().first(Engine.Kind.VECTOR);
     }
 
-    /** Peak MACs per second: the engine's units times the clock. */
+    /**
+     * Peak MACs per second of {@link #macEngine()}. A mac-array or analog-sum-array does one MAC per cell
+     * per cycle, a vector unit one per lane. An in-memory macro does {@code count x rows-active x columns
+     * / (s x c_in)} MACs per cycle: the rows driven at once, the weight bits sliced over {@code s} columns,
+     * inputs applied over {@code c_in} cycles (docs/method.md, section 7), at the precision of
+     * {@link #peakPrecision()}.
+     */
     double peakMacsPerSecond() {
         Engine e = macEngine();
-        return e == null ? 0 : e.units() * profile().clockHz();
+        if (e == null) {
+            return 0;
+        }
+        if (e.kind() == Engine.Kind.IN_MEMORY_MACRO) {
+            int[] wa = peakPrecision();
+            Engine.Macro mc = e.macro();
+            long slices = Math.max(1, (wa[0] + mc.bitsPerCell() - 1) / mc.bitsPerCell());
+            long inCycles = Math.max(1, (wa[1] + mc.inputBitsPerCycle() - 1) / mc.inputBitsPerCycle());
+            long rowsAtOnce = Math.min(mc.rowsActive(), e.rows());
+            return (double) mc.count() * rowsAtOnce * e.columns() / (slices * inCycles) * profile().clockHz();
+        }
+        return e.units() * profile().clockHz();
+    }
+
+    /**
+     * The weight and activation bits an in-memory macro's peak is taken at: those of the MAC layer with
+     * most MACs on it, or the macro's weight bits and 8-bit activations when no layer runs there.
+     */
+    int[] peakPrecision() {
+        Engine e = macEngine();
+        NodeEstimate best = null;
+        for (NodeEstimate n : layers) {
+            if (n.work().macs() > 0 && e != null && e.id().equals(n.engine()) && n.deployed() != null
+                    && (best == null || n.work().macs() > best.work().macs())) {
+                best = n;
+            }
+        }
+        if (best == null) {
+            int w = e != null && e.macro() != null ? e.macro().weightBits() : 8;
+            return new int[] {w, 8};
+        }
+        return new int[] {Math.max(1, best.deployed().weightBits()), Math.max(1, best.deployed().activationBits())};
+    }
+
+    /** The MAC engine in words: "a 64×64 weight-stationary MAC array", "12 in-memory macros of 256×256 cells". */
+    String macEngineWords() {
+        Engine a = macEngine();
+        if (a == null) {
+            return "no engine";
+        }
+        switch (a.kind()) {
+            case MAC_ARRAY:
+                return "a " + a.rows() + "×" + a.columns() + " " + a.dataflow().key + " MAC array";
+            case ANALOG_SUM_ARRAY:
+                return "a " + a.rows() + "×" + a.columns() + " analog-sum array";
+            case IN_MEMORY_MACRO:
+                int n = a.macro().count();
+                return n + " in-memory macro" + (n == 1 ? "" : "s") + " of " + a.rows() + "×" + a.columns()
+                        + " cells, " + a.macro().bitsPerCell() + " bit" + (a.macro().bitsPerCell() == 1 ? "" : "s")
+                        + " per cell";
+            case VECTOR:
+                return "a " + a.lanes() + "-lane vector unit";
+            default:
+                return "the " + a.kind().key + " engine '" + a.id() + "'";
+        }
+    }
+
+    /**
+     * The destinations the reports of this pair list, in report order: compute, registers, SRAM, DRAM
+     * and static always; conversion, cell writes and row drive when the profile has an engine that
+     * spends them (analog-sum-array, in-memory-macro) or they are not zero.
+     */
+    List<Energy.Destination> destinations() {
+        boolean analog = false;
+        boolean macro = false;
+        for (Engine e : profile().engines()) {
+            analog |= e.kind() == Engine.Kind.ANALOG_SUM_ARRAY;
+            macro |= e.kind() == Engine.Kind.IN_MEMORY_MACRO;
+        }
+        Energy t = estimate.energy();
+        List<Energy.Destination> out = new ArrayList<>();
+        for (Energy.Destination d : Energy.Destination.values()) {
+            boolean shown;
+            switch (d) {
+                case CONVERSION:
+                    shown = analog || macro || t.conversion() != 0;
+                    break;
+                case CELL_WRITES:
+                case ROW_DRIVE:
+                    shown = macro || t.of(d) != 0;
+                    break;
+                default:
+                    shown = true;
+            }
+            if (shown) {
+                out.add(d);
+            }
+        }
+        return out;
+    }
+
+    /** True when the reports show the accumulation part of compute apart: on analog and in-memory profiles. */
+    boolean showsAccumulation() {
+        return destinations().size() > 5;
+    }
+
+    /** A destination as reports label it: "compute", "SRAM", "cell writes"... */
+    static String label(Energy.Destination d) {
+        switch (d) {
+            case SRAM:
+                return "SRAM";
+            case DRAM:
+                return "DRAM";
+            default:
+                return d.key.replace('-', ' ');
+        }
+    }
+
+    /** The destination with the most dynamic energy in the frame. */
+    Energy.Destination dominant() {
+        return estimate.energy().dominant();
     }
 
     /** DRAM bandwidth in bytes per second (infinite when the profile gives none). */
@@ -112,18 +236,56 @@ final class Figures {
         return pair == null || pair.passed();
     }
 
-    /** Where the frame energy goes, as "compute 8.20, registers 1.05, SRAM 12.4, DRAM 0.72, static 10.5 µJ". */
+    /**
+     * Where the frame energy goes, every destination of {@link #destinations()}, as "compute 8.20,
+     * registers 1.05, SRAM 12.4, DRAM 0.72, static 10.5 µJ"; the parts add up to the frame's energy. On
+     * analog and in-memory profiles compute says how much of it is accumulation: "compute 3.1 (of it
+     * accumulation 2.9), ...".
+     */
     String energySplit() {
         Energy e = estimate.energy();
-        return "compute " + Format.sig(e.compute() * 1e6) + ", registers " + Format.sig(e.registers() * 1e6)
-                + ", SRAM " + Format.sig(e.sram() * 1e6) + ", DRAM " + Format.sig(e.dram() * 1e6) + ", static "
-                + Format.sig(e.staticEnergy() * 1e6) + " µJ";
+        StringBuilder b = new StringBuilder();
+        for (Energy.Destination d : destinations()) {
+            b.append(b.length() == 0 ? "" : ", ").append(label(d)).append(' ').append(Format.sig(e.of(d) * 1e6));
+            if (d == Energy.Destination.COMPUTE && showsAccumulation()) {
+                b.append(" (of it accumulation ").append(Format.sig(e.accumulation() * 1e6)).append(')');
+            }
+        }
+        return b.append(" µJ").toString();
+    }
+
+    /** True when an in-memory macro of the profile holds MAC weights in its cells. */
+    boolean weightsInCells() {
+        for (NodeEstimate n : layers) {
+            if (n.work().macs() > 0 && n.engine() != null) {
+                Engine e = engineById(n.engine());
+                if (e != null && e.kind() == Engine.Kind.IN_MEMORY_MACRO) {
+                    return true;
+                }
+            }
+        }
+        return false;
+    }
+
+    private Engine engineById(String id) {
+        for (Engine e : profile().engines()) {
+            if (e.id().equals(id)) {
+                return e;
+            }
+        }
+        return null;
     }
 
     /** How the weights sit on the device, in words. */
     String weightPlacement() {
-        return estimate.weightsResident() ? "resident in SRAM (loaded once, not per frame)"
+        if (estimate.weightsReloadedEachFrame()) {
+            return "reloaded every frame: the in-memory macros cannot hold them, so they are read from DRAM and"
+                    + " written into the cells";
+        }
+        String rest = estimate.weightsResident() ? "resident in SRAM (loaded once, not per frame)"
                 : "streamed from DRAM every frame";
+        return weightsInCells() ? "MAC weights held in the in-memory macro cells (written once); the rest " + rest
+                : rest;
     }
 
     /**

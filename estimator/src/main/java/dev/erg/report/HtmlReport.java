@@ -41,10 +41,11 @@ public final class HtmlReport {
     private static final Mustache TEMPLATE = new DefaultMustacheFactory("dev/erg/report").compile("report.mustache");
     private static final String CSS = resource("report.css");
 
-    /** The columns of the layer table, as every report labels them. */
-    private static final String[][] COLUMNS = {{"#", ""}, {"layer", "l"}, {"op, precision", "l"}, {"MACs", ""},
-        {"utilisation", ""}, {"latency µs", ""}, {"bound", "l"}, {"compute", ""}, {"registers", ""}, {"SRAM", ""},
-        {"DRAM", ""}, {"static", ""}, {"total", ""}, {"share", ""}, {"DRAM bytes", ""}};
+    /** The columns of the layer table before the energy destinations, as every report labels them. */
+    private static final String[][] COLUMNS = {{"#", ""}, {"layer", "l"}, {"op", "l"}, {"precision", "l"},
+        {"MACs", ""}, {"utilisation", ""}, {"latency µs", ""}, {"bound", "l"}};
+    /** The columns after the energy destinations. */
+    private static final String[][] TAIL_COLUMNS = {{"total", ""}, {"share", ""}, {"DRAM bytes", ""}};
 
     private HtmlReport() {
     }
@@ -81,6 +82,15 @@ public final class HtmlReport {
         v.put("model", Html.text(f.model));
         v.put("device", Html.text(f.device));
         v.put("clockMhz", Format.sig(f.profile().clockMhz()));
+        int devices = 0;
+        for (PairResult p : result == null ? List.<PairResult>of() : result.pairs()) {
+            devices += p.model().equals(f.model) ? 1 : 0;
+        }
+        if (devices > 1) {
+            // The page sits beside the model's comparison page (Reports.write writes both with the html format).
+            v.put("compareHref", Html.text(Reports.compareStem(f.model) + ".html"));
+            v.put("compareCount", devices);
+        }
         verdict(v, f.pair);
         v.put("notice", AnalysisJson.NOTICE);
         List<Map<String, Object>> checks = new ArrayList<>();
@@ -100,6 +110,7 @@ public final class HtmlReport {
         }
         v.put("totals", totals);
         v.put("incomplete", !f.estimate.complete());
+        v.put("reloadedEachFrame", f.estimate.weightsReloadedEachFrame());
         v.put("charts", List.of(
                 Map.of("section", "energy", "heading", "Energy per layer, by destination", "chart", EnergyChart.of(f)),
                 Map.of("section", "latency", "heading", "Latency per layer, by what bounds it", "chart",
@@ -131,7 +142,14 @@ public final class HtmlReport {
         List<NodeEstimate> ranked = f.byEnergy();
         int shown = Math.min(TABLE_ROWS, ranked.size());
         List<Map<String, Object>> columns = new ArrayList<>();
+        List<Energy.Destination> dests = f.destinations();
         for (String[] c : COLUMNS) {
+            columns.add(Map.of("label", c[0], "left", !c[1].isEmpty()));
+        }
+        for (Energy.Destination d : dests) {
+            columns.add(Map.of("label", Figures.label(d), "left", false));
+        }
+        for (String[] c : TAIL_COLUMNS) {
             columns.add(Map.of("label", c[0], "left", !c[1].isEmpty()));
         }
         v.put("layerColumns", columns);
@@ -147,7 +165,10 @@ public final class HtmlReport {
             r.put("shortName", Html.text(AnalysisTable.shorten(n.name(), 36)));
             r.put("tiling", n.tiling() == null ? null : Html.text(n.tiling()));
             r.put("engine", Html.text(n.engine()));
-            r.put("precision", Html.text(n.precision()));
+            r.put("precision", ConsoleReport.precision(n));
+            r.put("origin", ConsoleReport.origin(n));
+            r.put("types", Html.text(n.precision()));
+            r.put("reloaded", n.weightsReloaded());
             r.put("opType", Html.text(n.work().opType()));
             r.put("macs", Format.count(n.work().macs()));
             r.put("utilisation", ConsoleReport.utilisation(n));
@@ -155,11 +176,11 @@ public final class HtmlReport {
             r.put("boundColour", Palette.bound(n.bound()));
             r.put("bound", n.bound().label);
             r.put("fusedInto", n.fusedInto() == null ? null : Html.text(n.fusedInto()));
-            r.put("compute", uj(e.compute()));
-            r.put("registers", uj(e.registers()));
-            r.put("sram", uj(e.sram()));
-            r.put("dram", uj(e.dram()));
-            r.put("staticEnergy", uj(e.staticEnergy()));
+            List<String> energies = new ArrayList<>();
+            for (Energy.Destination d : dests) {
+                energies.add(uj(e.of(d)));
+            }
+            r.put("energies", energies);
             r.put("total", uj(e.total()));
             r.put("share", Format.percent(f.energyShare(n)));
             r.put("dramBytes", Format.bytes(n.dramReadBytes() + n.dramWriteBytes()));
@@ -213,9 +234,8 @@ public final class HtmlReport {
         StringBuilder device = new StringBuilder("Device: ").append(f.profile().name()).append(", ")
                 .append(Format.sig(f.profile().clockMhz())).append(" MHz");
         Engine a = f.macEngine();
-        if (a != null && a.kind() == Engine.Kind.MAC_ARRAY) {
-            device.append(", a ").append(a.rows()).append('×').append(a.columns()).append(' ')
-                    .append(a.dataflow().key).append(" MAC array");
+        if (a != null && a.isArray()) {
+            device.append(", ").append(f.macEngineWords());
         }
         if (f.profile().deployPrecision() != null) {
             device.append(", float tensors deployed at ").append(f.profile().deployPrecision());

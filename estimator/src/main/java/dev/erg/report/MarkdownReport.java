@@ -146,19 +146,35 @@ public final class MarkdownReport {
         }
         b.append("**").append(shown == ranked.size() ? "All " + ConsoleReport.plural(shown, "layer")
                 : "Top " + shown + " of " + ranked.size() + " layers").append(" by energy** (µJ; latency in µs)\n\n");
-        b.append("| # | layer | op | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM | static | total | share |"
-                + " bound |\n|---:|---|---|---:|---:|---:|---:|---:|---:|---:|---:|---:|---:|---|\n");
+        List<Energy.Destination> dests = f.destinations();
+        boolean reload = f.estimate.weightsReloadedEachFrame();
+        StringBuilder head = new StringBuilder("| # | layer | op | precision | from | MACs | utilisation | latency µs |");
+        StringBuilder rule = new StringBuilder("|---:|---|---|---|---|---:|---:|---:|");
+        for (Energy.Destination d : dests) {
+            head.append(' ').append(Figures.label(d)).append(" |");
+            rule.append("---:|");
+        }
+        head.append(" total | share | bound |").append(reload ? " weights |" : "");
+        rule.append("---:|---:|---|").append(reload ? "---|" : "");
+        b.append(head).append('\n').append(rule).append('\n');
         for (int i = 0; i < shown; i++) {
             NodeEstimate n = ranked.get(i);
             Energy e = n.energy();
             b.append("| ").append(i + 1).append(" | ").append(code(n.name())).append(" | ").append(code(n.work().opType()))
+                    .append(" | ").append(ConsoleReport.precision(n)).append(" | ").append(ConsoleReport.origin(n))
                     .append(" | ").append(Format.count(n.work().macs())).append(" | ")
                     .append(ConsoleReport.utilisation(n)).append(" | ")
-                    .append(Format.sig(n.latencySeconds() * 1e6)).append(" | ").append(uj(e.compute())).append(" | ")
-                    .append(uj(e.registers())).append(" | ").append(uj(e.sram())).append(" | ").append(uj(e.dram()))
-                    .append(" | ").append(uj(e.staticEnergy())).append(" | ").append(uj(e.total())).append(" | ")
+                    .append(Format.sig(n.latencySeconds() * 1e6)).append(" |");
+            for (Energy.Destination d : dests) {
+                b.append(' ').append(uj(e.of(d))).append(" |");
+            }
+            b.append(' ').append(uj(e.total())).append(" | ")
                     .append(Format.percent(f.energyShare(n))).append(" | ").append(text(ConsoleReport.bound(n)))
-                    .append(" |\n");
+                    .append(" |");
+            if (reload) {
+                b.append(n.weightsReloaded() ? " reloaded |" : " |");
+            }
+            b.append('\n');
         }
         b.append('\n');
     }

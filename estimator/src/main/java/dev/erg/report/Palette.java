@@ -1,6 +1,7 @@
 package dev.erg.report;
 
 import dev.erg.estimate.Bound;
+import dev.erg.estimate.Energy;
 
 /** The colours of the HTML report's charts (the page's own colours are in report.css). */
 final class Palette {
@@ -9,11 +10,32 @@ final class Palette {
     static final String SRAM = "#d4a541";
     static final String DRAM = "#b5533f";
     static final String STATIC = "#9a93ab";
+    static final String CONVERSION = "#7d4e8c";
+    static final String CELL_WRITES = "#cf8aa4";
+    static final String ROW_DRIVE = "#8b9640";
     static final String NONE = "#aea89c";
 
-    /** The energy destinations, in the order of {@link #DESTINATION_COLOURS}. */
-    static final String[] DESTINATIONS = {"compute", "registers", "SRAM", "DRAM", "static"};
-    static final String[] DESTINATION_COLOURS = {COMPUTE, REGISTERS, SRAM, DRAM, STATIC};
+    /** The colour of an energy destination in the charts. */
+    static String destination(Energy.Destination d) {
+        switch (d) {
+            case COMPUTE:
+                return COMPUTE;
+            case REGISTERS:
+                return REGISTERS;
+            case SRAM:
+                return SRAM;
+            case DRAM:
+                return DRAM;
+            case CONVERSION:
+                return CONVERSION;
+            case CELL_WRITES:
+                return CELL_WRITES;
+            case ROW_DRIVE:
+                return ROW_DRIVE;
+            default:
+                return STATIC;
+        }
+    }
 
     private Palette() {
     }

@@ -56,6 +56,41 @@ public final class Reports {
         return (model + "." + dev).replaceAll("[^A-Za-z0-9._-]", "_");
     }
 
+    /**
+     * The stem of a model's comparison files ({@code MODEL.compare.md}, {@code MODEL.compare.html}),
+     * written when the model runs on two devices or more.
+     */
+    public static String compareStem(String modelLabel) {
+        return (fileName(modelLabel).replaceAll("\\.onnx$", "") + ".compare").replaceAll("[^A-Za-z0-9._-]", "_");
+    }
+
+    /**
+     * The stems of every file set a run of {@code models} on {@code devices} writes, each with who writes
+     * it: one per pair, and one comparison per model when there are two devices or more. Two writers of
+     * one stem are a one-line error naming both.
+     */
+    public static void checkStems(List<String> models, List<String> devices) {
+        Map<String, String> stems = new HashMap<>();
+        for (String m : models) {
+            for (String d : devices) {
+                claim(stems, stem(m, d), m + " on " + d);
+            }
+        }
+        if (devices.size() > 1) {
+            for (String m : models) {
+                claim(stems, compareStem(m), "the comparison of " + m);
+            }
+        }
+    }
+
+    private static void claim(Map<String, String> stems, String stem, String who) {
+        String other = stems.put(stem, who);
+        if (other != null) {
+            throw new BadInputException(other + " and " + who + " would write the same report files (" + stem
+                    + ".*); give the models or device files distinct names");
+        }
+    }
+
     private static String fileName(String path) {
         String t = path.replace('\\', '/');
         while (t.endsWith("/") && t.length() > 1) {
@@ -78,7 +113,9 @@ public final class Reports {
     /**
      * Writes the requested formats for every pair into {@code dir}; returns the files written, in a
      * stable order: pair by pair as in the result, and per pair {@code STEM.json}, {@code STEM.html},
-     * {@code STEM.md}, {@code TEST-erg.STEM.xml} (those requested). Two pairs that share a stem (two
+     * {@code STEM.md}, {@code TEST-erg.STEM.xml} (those requested); then, for every model that ran on two
+     * devices or more, {@code MODEL.compare.html} and {@code MODEL.compare.md} ({@link ComparisonReport}).
+     * Two pairs that share a stem (two
      * models with the same file name) are refused before anything is written: no file is overwritten.
      * A run checks this before it reads the first model ({@code RunRequest.validate}).
      */
@@ -86,12 +123,11 @@ public final class Reports {
         checkFormats(formats);
         Map<String, String> stems = new HashMap<>();
         for (PairResult p : result.pairs()) {
-            String who = p.model() + " on " + p.device();
-            String other = stems.put(stem(p), who);
-            if (other != null) {
-                throw new BadInputException(other + " and " + who + " would write the same report files ("
-                        + stem(p) + ".*); give the models or device files distinct names");
-            }
+            claim(stems, stem(p), p.model() + " on " + p.device());
+        }
+        List<Comparison> comparisons = Comparison.of(result);
+        for (Comparison c : comparisons) {
+            claim(stems, c.stem(), "the comparison of " + c.model);
         }
         List<Path> written = new ArrayList<>();
         Path target = dir;
@@ -118,6 +154,18 @@ public final class Reports {
                 if (formats.contains("junit")) {
                     target = dir.resolve("TEST-erg." + stem + ".xml");
                     Files.write(target, utf8(JUnitReport.render(f, result, stem)));
+                    written.add(target);
+                }
+            }
+            for (Comparison c : comparisons) {
+                if (formats.contains("html")) {
+                    target = dir.resolve(c.stem() + ".html");
+                    Files.write(target, utf8(ComparisonReport.html(c)));
+                    written.add(target);
+                }
+                if (formats.contains("markdown")) {
+                    target = dir.resolve(c.stem() + ".md");
+                    Files.write(target, utf8(ComparisonReport.markdown(c)));
                     written.add(target);
                 }
             }

@@ -35,8 +35,11 @@ final class RooflineChart {
         StringBuilder cap = new StringBuilder("Each dot is a MAC layer: x its operational"
                 + " intensity (MACs per byte of DRAM traffic), y its achieved rate (MACs over its latency), both"
                 + " logarithmic. The flat roof is the peak of the ");
-        cap.append(e == null ? "engine" : e.kind() == Engine.Kind.MAC_ARRAY ? e.rows() + "×" + e.columns()
-                + " array" : e.lanes() + "-lane vector unit");
+        cap.append(e == null ? "engine" : f.macEngineWords().replaceFirst("^an? ", ""));
+        if (e != null && e.kind() == Engine.Kind.IN_MEMORY_MACRO) {
+            int[] wa = f.peakPrecision();
+            cap.append(" at w").append(wa[0]).append('a').append(wa[1]);
+        }
         cap.append(" (").append(Format.sig(peak / 1e9)).append(" GMAC/s)");
         if (slope) {
             cap.append(", the slope the DRAM bandwidth (").append(Format.sig(bw / 1e9)).append(" GB/s)");

@@ -3,6 +3,7 @@ package dev.erg.run;
 import dev.erg.budget.Budget;
 import dev.erg.error.BadInputException;
 import dev.erg.graph.InputBindings;
+import dev.erg.workload.PrecisionOverrides;
 import java.nio.file.Path;
 import java.util.Collections;
 import java.util.LinkedHashMap;
@@ -10,7 +11,7 @@ import java.util.Map;
 
 /**
  * One model of a run: its label (the path as the user wrote it, which names it in every message and
- * report), its file, the values of its symbolic dims, and its own budget limits.
+ * report), its file, the values of its symbolic dims, its own budget limits and its precision rules.
  *
  * <p>Immutable; each {@code with...} method returns a changed copy, so that a new per-model setting
  * (such as bindings of whole input shapes or constant input values) is one more field and one more
@@ -21,35 +22,59 @@ public final class ModelSpec {
     private final Path file;
     private final InputBindings bindings;
     private final Budget budget;
+    private final PrecisionOverrides precision;
 
     public ModelSpec(String label, Path file) {
-        this(label, file, InputBindings.NONE, Budget.none());
+        this(label, file, InputBindings.NONE, Budget.none(), PrecisionOverrides.NONE);
     }
 
     public ModelSpec(String label, Path file, Map<String, Long> dims) {
-        this(label, file, InputBindings.ofDims(dims), Budget.none());
+        this(label, file, InputBindings.ofDims(dims), Budget.none(), PrecisionOverrides.NONE);
     }
 
-    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget) {
+    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget, PrecisionOverrides precision) {
         this.label = label;
         this.file = file;
         this.bindings = bindings == null ? InputBindings.NONE : bindings;
         this.budget = budget == null ? Budget.none() : budget;
+        this.precision = precision == null ? PrecisionOverrides.NONE : precision;
     }
 
     /** This model with {@code dims} as the values of its symbolic dims (its shapes and values kept). */
     public ModelSpec withDims(Map<String, Long> dims) {
-        return new ModelSpec(label, file, bindings.withDims(dims), budget);
+        return new ModelSpec(label, file, bindings.withDims(dims), budget, precision);
     }
 
     /** This model with every kind of input binding: symbolic dims, whole shapes, constant values. */
     public ModelSpec withBindings(InputBindings bindings) {
-        return new ModelSpec(label, file, bindings, budget);
+        return new ModelSpec(label, file, bindings, budget, precision);
     }
 
     /** This model with its own limits: they override the device's and the run's, limit by limit. */
     public ModelSpec withBudget(Budget budget) {
-        return new ModelSpec(label, file, bindings, budget);
+        return new ModelSpec(label, file, bindings, budget, precision);
+    }
+
+    /**
+     * This model with precision rules that override, node by node, the precision it is deployed at on
+     * every device (the first rule that matches a node decides; see {@link PrecisionOverrides}).
+     */
+    public ModelSpec withPrecision(PrecisionOverrides rules) {
+        return new ModelSpec(label, file, bindings, budget, rules);
+    }
+
+    /**
+     * As {@link #withPrecision(PrecisionOverrides)}, from rules in text form ({@code PATTERN[@OP]=wNaM}).
+     *
+     * @throws BadInputException naming the first malformed rule
+     */
+    public ModelSpec withPrecision(java.util.List<String> rules) {
+        return withPrecision(PrecisionOverrides.parse(rules == null ? java.util.List.of() : rules));
+    }
+
+    /** The model's precision rules, in order (empty when it has none). */
+    public PrecisionOverrides precision() {
+        return precision;
     }
 
     public String label() {

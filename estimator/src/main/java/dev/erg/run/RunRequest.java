@@ -166,18 +166,11 @@ public final class RunRequest {
         }
         Reports.checkFormats(formats);
         if (writesReports()) {
-            Map<String, String> stems = new HashMap<>();
+            List<String> modelLabels = new ArrayList<>();
             for (ModelSpec m : models) {
-                for (DeviceSpec d : devices) {
-                    String stem = Reports.stem(m.label(), d.label());
-                    String who = m.label() + " on " + d.label();
-                    String other = stems.put(stem, who);
-                    if (other != null) {
-                        throw new BadInputException(other + " and " + who + " would write the same report files ("
-                                + stem + ".*); give the models or device files distinct names");
-                    }
-                }
+                modelLabels.add(m.label());
             }
+            Reports.checkStems(modelLabels, labels);
         }
         return this;
     }

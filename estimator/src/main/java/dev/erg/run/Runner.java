@@ -12,6 +12,8 @@ import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Estimator;
 import dev.erg.report.Reports;
 import dev.erg.workload.ModelWorkload;
+import dev.erg.workload.NodeWork;
+import dev.erg.workload.PrecisionOverrides;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.List;
@@ -54,11 +56,12 @@ public final class Runner {
                         + " and a budget can pass that the full model would break"
                         + " (requiring every node to be modelled makes this a violation)");
             }
+            notes.addAll(unmatchedRules(m, w));
             for (int i = 0; i < profiles.size(); i++) {
                 DeviceSpec d = req.devices().get(i);
                 DeviceProfile profile = profiles.get(i);
                 progress.say("estimating " + m.label() + " on " + profile.id());
-                DeviceEstimate e = Estimator.estimate(w, profile);
+                DeviceEstimate e = Estimator.estimate(w, profile, m.precision());
                 pairs.add(Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
                         req.failOnUnmodelled()));
             }
@@ -75,5 +78,26 @@ public final class Runner {
         }
         return new RunOutcome(result, files, written, written == null ? 0 : pairs.size(), total,
                 req.failOnViolation());
+    }
+
+    /**
+     * One note per precision rule of {@code m} that matches no node of its graph: such a rule is most
+     * likely a typing error, and it changes nothing.
+     */
+    public static List<String> unmatchedRules(ModelSpec m, ModelWorkload w) {
+        List<String> out = new ArrayList<>();
+        for (PrecisionOverrides.Rule r : m.precision().rules()) {
+            boolean hit = false;
+            for (NodeWork n : w.nodes()) {
+                if (r.matches(n.name(), n.opType())) {
+                    hit = true;
+                    break;
+                }
+            }
+            if (!hit) {
+                out.add(m.label() + ": precision rule \"" + r + "\" matches no node of the model; it changes nothing");
+            }
+        }
+        return out;
     }
 }

@@ -56,13 +56,15 @@ class GateJsonTest {
         assertEquals(List.of("macs", "vectorOps", "weightBytes", "peakActivationBytes", "nodes", "complete", "folded",
                 "views", "latencySeconds", "maxFps", "energyPerFrameJoules", "averagePowerWatts", "fps", "energyJoules",
                 "weightsResident", "residentWeightBytes", "deviceWeightBytes", "deviceActivationPeakBytes",
-                "dramBytesPerFrame"), names(root.get("totals")));
-        assertEquals(List.of("compute", "registers", "sram", "dram", "static", "total"),
+                "dramBytesPerFrame", "weightsReloadedEachFrame", "energyPerMacJoules", "opsPerWatt", "macUtilisation",
+                "dominantDestination"), names(root.get("totals")));
+        assertEquals(List.of("compute", "registers", "sram", "dram", "conversion", "cellWrites", "rowDrive", "static",
+                "total", "accumulation"),
                 names(root.at("/totals/energyJoules")));
         JsonNode conv = root.at("/nodes/0");
         assertEquals(List.of("name", "opType", "macs", "vectorOps", "weightBytes", "inputBytes", "outputBytes",
                 "precision", "outputShapes", "kind", "weightPrecision", "gemm", "estimate"), names(conv));
-        assertEquals(List.of("engine", "precision", "latencySeconds", "utilisation", "bound", "computeCycles", "bytes",
+        assertEquals(List.of("engine", "precision", "deployed", "weightsReloaded", "latencySeconds", "utilisation", "bound", "computeCycles", "bytes",
                 "energyJoules", "seconds"), names(conv.get("estimate")));
         assertEquals(List.of("registerRead", "registerWrite", "sramRead", "sramWrite", "dramRead", "dramWrite"),
                 names(conv.at("/estimate/bytes")));

@@ -76,11 +76,11 @@ class MarkdownReportTest {
         assertTrue(checks.get(3).startsWith("| ok | budget.latency | "), checks.get(3));
         assertRectangular(table(md, "| | | |"));
         assertTrue(md.contains("| latency | 0.00524 ms |"), md);
-        List<String> layers = table(md, "| # | layer | op | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM"
+        List<String> layers = table(md, "| # | layer | op | precision | from | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM"
                 + " | static | total | share | bound |");
         assertEquals(2 + 2, layers.size());
         assertRectangular(layers);
-        assertTrue(layers.get(2).startsWith("| 1 | `conv` | `Conv` | 6.91k | "), layers.get(2));
+        assertTrue(layers.get(2).startsWith("| 1 | `conv` | `Conv` | w8a8 | profile default | 6.91k | "), layers.get(2));
         assertTrue(md.contains("**Against the baseline**\n\nNo baseline is configured.\n"));
         assertTrue(md.endsWith("\n> " + MarkdownReport.text(AnalysisJson.NOTICE) + "\n"));
         assertFalse(md.contains("\r"));
@@ -91,7 +91,7 @@ class MarkdownReportTest {
         GateResult r = Gates.gate(Gates.chain(dir.resolve("chain.onnx"), 12), Budget.none());
         String md = md(r);
         assertTrue(md.contains("**Top 10 of 12 layers by energy**"), md);
-        assertEquals(10 + 2, table(md, "| # | layer | op | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM"
+        assertEquals(10 + 2, table(md, "| # | layer | op | precision | from | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM"
                 + " | static | total | share | bound |").size());
         assertTrue(md.startsWith("### erg: `chain.onnx` on `test-device`: **not checked**\n\nNo budget"), md);
     }
@@ -100,7 +100,7 @@ class MarkdownReportTest {
     void pipesAndMarkupInNamesCannotBreakTheTables() {
         GateResult r = Gates.gate(Gates.convRelu(dir.resolve("h.onnx"), Gates.HOSTILE, "relu", 4), Gates.mixed());
         String md = md(r);
-        List<String> layers = table(md, "| # | layer | op | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM"
+        List<String> layers = table(md, "| # | layer | op | precision | from | MACs | utilisation | latency µs | compute | registers | SRAM | DRAM"
                 + " | static | total | share | bound |");
         assertRectangular(layers);
         // In a code span: the pipe escaped, the backticks fenced by a longer run, markup shown as text.

@@ -44,7 +44,7 @@ class ReportsTest {
         List<Path> files = Reports.write(r, out, Reports.parseFormats("junit, markdown,html,json"));
         assertEquals(List.of("tiny.test-device.json", "tiny.test-device.html", "tiny.test-device.md",
                 "TEST-erg.tiny.test-device.xml", "tiny.feeder-npu.json", "tiny.feeder-npu.html", "tiny.feeder-npu.md",
-                "TEST-erg.tiny.feeder-npu.xml"), names(files));
+                "TEST-erg.tiny.feeder-npu.xml", "tiny.compare.html", "tiny.compare.md"), names(files));
         for (Path f : files) {
             assertEquals(out, f.getParent());
             assertTrue(Files.size(f) > 0, f.toString());
@@ -106,7 +106,7 @@ class ReportsTest {
         List<String> lines = List.of(text.split("\n"));
         assertEquals("chain.onnx on test-device (test device, 100 MHz)", lines.get(0));
         assertEquals("Top 10 of 12 layers by energy (energy in µJ)", lines.get(1));
-        assertEquals(List.of("#", "layer", "op", "MACs", "utilisation", "latency", "µs", "compute", "registers", "SRAM", "DRAM",
+        assertEquals(List.of("#", "layer", "op", "precision", "from", "MACs", "utilisation", "latency", "µs", "compute", "registers", "SRAM", "DRAM",
                 "static", "total", "share", "bound"), List.of(lines.get(2).trim().split(" +")));
         // 10 rows, each as wide as the header once its trailing blanks are cut (right-aligned numbers).
         for (int i = 3; i < 13; i++) {

@@ -11,6 +11,7 @@ import dev.erg.run.ModelSpec;
 import dev.erg.run.RunOutcome;
 import dev.erg.run.RunRequest;
 import dev.erg.run.Runner;
+import dev.erg.workload.PrecisionOverrides;
 import java.io.File;
 import java.nio.file.Path;
 import java.util.LinkedHashMap;
@@ -33,7 +34,8 @@ abstract class AbstractErgMojo extends AbstractMojo {
     /**
      * The ONNX models to estimate. Each {@code <model>} has a {@code <file>} (relative to the project's
      * base directory), optional {@code <dimensions>} that bind symbolic dimensions, e.g.
-     * {@code <batch>1</batch>}, and an optional {@code <budget>} of its own.
+     * {@code <batch>1</batch>}, an optional {@code <budget>} of its own, and optional {@code <precision>}
+     * rules ({@code <rule>PATTERN[@OP]=wNaM</rule>}, the first that matches a node decides).
      */
     @Parameter
     List<ModelConfig> models;
@@ -126,7 +128,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
                 String label = m.getFile().strip();
                 where += " (" + label + ")";
                 ModelSpec spec = new ModelSpec(label, resolve(base, label, where + ".file"))
-                        .withBindings(bindings(where, m));
+                        .withBindings(bindings(where, m)).withPrecision(precision(where, m.getPrecision()));
                 if (m.getBudget() != null && checksBudgets()) {
                     spec = spec.withBudget(m.getBudget().toBudget(where + ".budget"));
                 }
@@ -172,6 +174,25 @@ abstract class AbstractErgMojo extends AbstractMojo {
             throw new MojoExecutionException("erg: " + where + ": not a valid path: " + path + " (" + e.getReason()
                     + ")");
         }
+    }
+
+    /** The model's {@code <precision>} rules, parsed in order; a malformed one names its element. */
+    private static PrecisionOverrides precision(String where, List<String> rules) throws MojoExecutionException {
+        List<PrecisionOverrides.Rule> out = new java.util.ArrayList<>();
+        if (rules != null) {
+            for (int i = 0; i < rules.size(); i++) {
+                String r = rules.get(i);
+                try {
+                    if (r == null || r.isBlank()) {
+                        throw new BadInputException("empty; write PATTERN[@OP]=wNaM, e.g. /backbone/*@Conv=w4a8");
+                    }
+                    out.add(PrecisionOverrides.parseRule(r));
+                } catch (BadInputException e) {
+                    throw new MojoExecutionException("erg: " + where + ": precision[" + i + "]: " + e.getMessage(), e);
+                }
+            }
+        }
+        return new PrecisionOverrides(out);
     }
 
     /** The model's input bindings: {@code <dimensions>}, {@code <shapes>} and {@code <values>}. */

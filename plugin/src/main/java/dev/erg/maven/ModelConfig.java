@@ -1,6 +1,8 @@
 package dev.erg.maven;
 
+import java.util.ArrayList;
 import java.util.LinkedHashMap;
+import java.util.List;
 import java.util.Map;
 
 /**
@@ -15,6 +17,7 @@ import java.util.Map;
  *   &lt;budget&gt;&lt;maxLatencyMs&gt;80&lt;/maxLatencyMs&gt;&lt;/budget&gt;
  *   &lt;shapes&gt;&lt;input&gt;1x576&lt;/input&gt;&lt;/shapes&gt;
  *   &lt;values&gt;&lt;sr&gt;16000&lt;/sr&gt;&lt;/values&gt;
+ *   &lt;precision&gt;&lt;rule&gt;/backbone/*@Conv=w4a8&lt;/rule&gt;&lt;/precision&gt;
  * &lt;/model&gt;
  * </pre>
  */
@@ -32,6 +35,12 @@ public class ModelConfig {
 
     /** Constant values of small graph inputs, e.g. {@code <sr>16000</sr>} or {@code <ids>1,2,3</ids>}. */
     private Map<String, String> values = new LinkedHashMap<>();
+
+    /**
+     * Precision rules, in order, each {@code PATTERN[@OP]=wNaM}, e.g. {@code <rule>/backbone/*@Conv=w4a8</rule>};
+     * the first rule that matches a node sets its deployed precision on every device.
+     */
+    private List<String> precision = new ArrayList<>();
 
     public ModelConfig() {
     }
@@ -79,5 +88,13 @@ public class ModelConfig {
 
     public void setValues(Map<String, String> values) {
         this.values = values;
+    }
+
+    public List<String> getPrecision() {
+        return precision;
+    }
+
+    public void setPrecision(List<String> precision) {
+        this.precision = precision;
     }
 }

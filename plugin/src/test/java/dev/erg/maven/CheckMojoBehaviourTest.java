@@ -248,6 +248,19 @@ class CheckMojoBehaviourTest {
 
     @Test
     @InjectMojo(goal = "check", pom = POM)
+    void malformedPrecisionRule(CheckMojo mojo) {
+        ModelConfig m = new ModelConfig("a.onnx", Map.of());
+        m.setPrecision(List.of("/backbone/*@Conv=w4a8", "conv=w4x8"));
+        mojo.models = List.of(m);
+        assertEquals("erg: models[0] (a.onnx): precision[1]: precision rule \"conv=w4x8\": write PATTERN[@OP]=wNaM,"
+                + " e.g. /backbone/*@Conv=w4a8 (or wN, aM; re:EXPR for a regular expression)", fault(mojo));
+        m.setPrecision(java.util.Arrays.asList("/backbone/*=w4", " "));
+        assertEquals("erg: models[0] (a.onnx): precision[1]: empty; write PATTERN[@OP]=wNaM, e.g. /backbone/*@Conv=w4a8",
+                fault(mojo));
+    }
+
+    @Test
+    @InjectMojo(goal = "check", pom = POM)
     void modelListedTwice(CheckMojo mojo) {
         mojo.models = List.of(new ModelConfig("a.onnx", Map.of()), new ModelConfig("a.onnx", Map.of()));
         assertEquals("erg: models[1]: a.onnx is listed twice (also as models[0])", fault(mojo));

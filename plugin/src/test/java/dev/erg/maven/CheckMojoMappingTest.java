@@ -52,10 +52,13 @@ class CheckMojoMappingTest {
         assertTrue(first.budget().isEmpty());
         assertEquals(Map.of("input", List.of(1L, 576L)), first.bindings().shapes());
         assertEquals(Map.of("sr", List.of("16000"), "ids", List.of("1", "2", "3")), first.bindings().values());
+        assertEquals(List.of("/backbone/*@Conv=w4a8", "re:^/head/.*=w8a8"),
+                first.precision().rules().stream().map(Object::toString).toList());
         ModelSpec second = r.models().get(1);
         assertEquals("models/second.onnx", second.label());
         assertEquals(Map.of(), second.dims());
         assertTrue(second.bindings().isEmpty());
+        assertTrue(second.precision().isEmpty());
         assertEquals(Map.of("maxLatencyMs", 80.0), second.budget().limits());
     }
 

@@ -34,6 +34,8 @@ import org.junit.jupiter.api.io.TempDir;
 class FrontEndParityTest {
     private static final String POM = "src/test/resources/unit/defaults/pom.xml";
     private static final List<String> DEVICES = List.of("preset:feeder-npu", "preset:generic-45nm");
+    /** A precision rule that changes conv2 of both models (ItFixtures.smallCnn, grownCnn). */
+    private static final String RULE = "conv2@Conv=w4a8";
 
     @TempDir
     Path dir;
@@ -66,7 +68,10 @@ class FrontEndParityTest {
         own.setMaxLatencyMs(0.01);
         ModelConfig g = new ModelConfig(grown, Map.of("batch", "1"));
         g.setBudget(own);
-        mojo.models = List.of(new ModelConfig(small, Map.of("batch", "1")), g);
+        g.setPrecision(List.of(RULE));
+        ModelConfig s = new ModelConfig(small, Map.of("batch", "1"));
+        s.setPrecision(List.of(RULE));
+        mojo.models = List.of(s, g);
         mojo.devices = DEVICES;
         mojo.baseline = baseline.toString();
         mojo.basedir = dir.toFile();
@@ -93,7 +98,7 @@ class FrontEndParityTest {
                 + "models:\n  \"" + grown + "\":\n    maxLatencyMs: 0.01\n"
                 + "devices:\n  \"preset:generic-45nm\":\n    maxPowerMw: 0.5\n");
         List<String> args = new ArrayList<>(List.of("check", small, grown, "--device", DEVICES.get(0), "--device",
-                DEVICES.get(1), "--dim", "batch=1", "--budget-file", budgets.toString()));
+                DEVICES.get(1), "--dim", "batch=1", "--precision", RULE, "--budget-file", budgets.toString()));
         args.addAll(List.of(extra));
         return args.toArray(new String[0]);
     }
@@ -139,7 +144,11 @@ class FrontEndParityTest {
         // The same files, byte for byte.
         List<String> pluginFiles = names(dir.resolve("plugin-reports"));
         assertEquals(names(dir.resolve("cli-reports")), pluginFiles);
-        assertEquals(16, pluginFiles.size(), "4 pairs x 4 formats");
+        assertEquals(16 + 4, pluginFiles.size(), "4 pairs x 4 formats, and each model's comparison in 2 formats");
+        // The precision rule reached the estimate in both front ends.
+        String md = Files.readString(dir.resolve("cli-reports/small.feeder-npu.md"));
+        assertTrue(md.contains("| `conv2` | `Conv` | w4a8 | override | "), md);
+        assertTrue(pluginFiles.contains("small.compare.md"), pluginFiles.toString());
         for (String f : pluginFiles) {
             assertArrayEquals(Files.readAllBytes(dir.resolve("plugin-reports").resolve(f)),
                     Files.readAllBytes(dir.resolve("cli-reports").resolve(f)), f);
