@@ -90,6 +90,9 @@ final class CheckCommand implements Callable<Integer> {
     @CommandLine.Mixin
     ModelOptions modelOptions = new ModelOptions();
 
+    @CommandLine.Mixin
+    SweepOption sweepOption = new SweepOption();
+
     @Option(names = "--top", paramLabel = "N", defaultValue = "" + ConsoleReport.DEFAULT_TOP,
             description = "How many layers the console lists per pair, most energy first (default: ${DEFAULT-VALUE}).")
     int top;
@@ -105,6 +108,12 @@ final class CheckCommand implements Callable<Integer> {
         PrintWriter out = spec.commandLine().getOut();
         for (String n : result.notes()) {
             out.println("note: " + n);
+        }
+        for (String line : outcome.sweepLines()) {
+            out.println(line);
+        }
+        if (!outcome.sweeps().isEmpty()) {
+            out.println();
         }
         if (result.baselineNote() != null && !writeBaseline) {
             out.println("note: " + result.baselineNote() + "; create it with --write-baseline and commit it");
@@ -153,8 +162,13 @@ final class CheckCommand implements Callable<Integer> {
                 .maxEnergyPerFrameUj(maxEnergyPerFrameUj).maxLatencyMs(maxLatencyMs).maxWeightKib(maxWeightKib)
                 .maxActivationKib(maxActivationKib).build();
         List<ModelSpec> specs = new ArrayList<>();
+        dev.erg.explore.SweepRange sweep = sweepOption.range(spec);
+        if (sweep != null && bindings.dims().containsKey(sweep.name())) {
+            throw Options.usage(spec, "--sweep " + sweep.name() + " and --dim " + sweep.name()
+                    + " bind the same dimension; give one of the two");
+        }
         for (Path m : models) {
-            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings));
+            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings).withSweep(sweep));
         }
         RunRequest.Builder b = RunRequest.builder().failOnUnmodelled(modelOptions.failOnUnmodelled)
                 .failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);

@@ -2,6 +2,7 @@ package dev.erg.run;
 
 import dev.erg.budget.Budget;
 import dev.erg.error.BadInputException;
+import dev.erg.explore.SweepRange;
 import dev.erg.graph.InputBindings;
 import java.nio.file.Path;
 import java.util.Collections;
@@ -21,35 +22,50 @@ public final class ModelSpec {
     private final Path file;
     private final InputBindings bindings;
     private final Budget budget;
+    private final SweepRange sweep;
 
     public ModelSpec(String label, Path file) {
-        this(label, file, InputBindings.NONE, Budget.none());
+        this(label, file, InputBindings.NONE, Budget.none(), null);
     }
 
     public ModelSpec(String label, Path file, Map<String, Long> dims) {
-        this(label, file, InputBindings.ofDims(dims), Budget.none());
+        this(label, file, InputBindings.ofDims(dims), Budget.none(), null);
     }
 
-    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget) {
+    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget, SweepRange sweep) {
         this.label = label;
         this.file = file;
         this.bindings = bindings == null ? InputBindings.NONE : bindings;
         this.budget = budget == null ? Budget.none() : budget;
+        this.sweep = sweep;
+    }
+
+    /**
+     * This model swept over a symbolic dim: every value is estimated and checked, and the model's pair
+     * in the gate is taken at the first failing value (the last value when all pass).
+     */
+    public ModelSpec withSweep(SweepRange sweep) {
+        return new ModelSpec(label, file, bindings, budget, sweep);
+    }
+
+    /** The sweep of this model, or null. */
+    public SweepRange sweep() {
+        return sweep;
     }
 
     /** This model with {@code dims} as the values of its symbolic dims (its shapes and values kept). */
     public ModelSpec withDims(Map<String, Long> dims) {
-        return new ModelSpec(label, file, bindings.withDims(dims), budget);
+        return new ModelSpec(label, file, bindings.withDims(dims), budget, sweep);
     }
 
     /** This model with every kind of input binding: symbolic dims, whole shapes, constant values. */
     public ModelSpec withBindings(InputBindings bindings) {
-        return new ModelSpec(label, file, bindings, budget);
+        return new ModelSpec(label, file, bindings, budget, sweep);
     }
 
     /** This model with its own limits: they override the device's and the run's, limit by limit. */
     public ModelSpec withBudget(Budget budget) {
-        return new ModelSpec(label, file, bindings, budget);
+        return new ModelSpec(label, file, bindings, budget, sweep);
     }
 
     public String label() {

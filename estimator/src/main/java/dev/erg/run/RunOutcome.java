@@ -2,6 +2,7 @@ package dev.erg.run;
 
 import dev.erg.budget.Check;
 import dev.erg.budget.GateResult;
+import dev.erg.explore.Sweep;
 import java.nio.file.Path;
 import java.util.List;
 
@@ -15,11 +16,28 @@ import java.util.List;
  * @param baselineRefreshed how many entries this run wrote into it
  * @param baselineEntries   how many entries it holds in all (the entries of pairs not run are kept)
  * @param failOnViolation   whether a violation fails the run
+ * @param sweeps            the sweeps of the models that have one, model by model and device by device
  */
 public record RunOutcome(GateResult result, List<Path> reports, Path baselineWritten, int baselineRefreshed,
-                         int baselineEntries, boolean failOnViolation) {
+                         int baselineEntries, boolean failOnViolation, List<Sweep> sweeps) {
     public RunOutcome {
         reports = List.copyOf(reports);
+        sweeps = sweeps == null ? List.of() : List.copyOf(sweeps);
+    }
+
+    /** An outcome without sweeps. */
+    public RunOutcome(GateResult result, List<Path> reports, Path baselineWritten, int baselineRefreshed,
+                      int baselineEntries, boolean failOnViolation) {
+        this(result, reports, baselineWritten, baselineRefreshed, baselineEntries, failOnViolation, List.of());
+    }
+
+    /** The lines of every sweep (fits, broken ranges, the value found), for the console and the log. */
+    public List<String> sweepLines() {
+        List<String> out = new java.util.ArrayList<>();
+        for (Sweep s : sweeps) {
+            out.addAll(s.lines());
+        }
+        return out;
     }
 
     /** Every failed check, budget, growth and policy alike. */

@@ -12,7 +12,17 @@ import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Estimator;
 import dev.erg.report.Reports;
 import dev.erg.workload.ModelWorkload;
+import dev.erg.explore.Sweep;
+import dev.erg.explore.SweepPoint;
+import dev.erg.explore.Sweeper;
+import dev.erg.graph.InputBindings;
+import dev.erg.onnx.OnnxModel;
+import dev.erg.onnx.OnnxReader;
+import dev.erg.report.SweepReport;
+import dev.erg.workload.PrecisionOverrides;
 import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.Map;
 import java.util.ArrayList;
 import java.util.List;
 
@@ -45,9 +55,30 @@ public final class Runner {
         Double growth = req.growthChecked();
         List<PairResult> pairs = new ArrayList<>();
         List<String> notes = new ArrayList<>();
+        List<Sweep> sweeps = new ArrayList<>();
+        Map<String, Sweep> sweepStems = new LinkedHashMap<>();
         for (ModelSpec m : req.models()) {
             progress.say("analysing " + m.label());
-            ModelWorkload w = Analyzer.analyze(m.file(), m.bindings(), AnalysisOptions.DEFAULTS);
+            List<ModelWorkload> perDevice = null;
+            if (m.sweep() != null) {
+                OnnxModel om = OnnxReader.read(m.file());
+                Sweeper.requireSweepable(om, m.bindings(), m.sweep());
+                perDevice = new ArrayList<>();
+                for (int i = 0; i < profiles.size(); i++) {
+                    DeviceSpec d = req.devices().get(i);
+                    progress.say("sweeping " + m.sweep() + " of " + m.label() + " on " + profiles.get(i).id());
+                    Sweep s = Sweeper.run(om, m.label(), m.bindings(), m.sweep(), profiles.get(i), req.budgetOf(m, d),
+                            PrecisionOverrides.NONE);
+                    for (String line : s.lines()) {
+                        progress.say(line);
+                    }
+                    sweeps.add(s);
+                    sweepStems.put(Reports.stem(m.label(), d.label()), s);
+                    perDevice.add(Analyzer.analyze(om, bindingAt(m, s), AnalysisOptions.DEFAULTS));
+                }
+            }
+            ModelWorkload w = perDevice != null ? perDevice.get(0)
+                    : Analyzer.analyze(m.file(), m.bindings(), AnalysisOptions.DEFAULTS);
             notes.addAll(Analyzer.unusedDimNotes(w, m.dims()));
             if (!w.complete() && !req.failOnUnmodelled()) {
                 notes.add(w.incompleteness() + ". Those nodes are not priced, so every total is a lower bound"
@@ -58,13 +89,17 @@ public final class Runner {
                 DeviceSpec d = req.devices().get(i);
                 DeviceProfile profile = profiles.get(i);
                 progress.say("estimating " + m.label() + " on " + profile.id());
-                DeviceEstimate e = Estimator.estimate(w, profile);
+                DeviceEstimate e = Estimator.estimate(perDevice != null ? perDevice.get(i) : w, profile);
                 pairs.add(Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
                         req.failOnUnmodelled()));
             }
         }
         GateResult result = Gate.result(pairs, req.budget(), growth, req.baselineLabel(), baseline != null, notes);
-        List<Path> files = req.writesReports() ? Reports.write(result, req.reportDir(), req.formats()) : List.of();
+        List<Path> files = new ArrayList<>();
+        if (req.writesReports()) {
+            files.addAll(Reports.write(result, req.reportDir(), req.formats()));
+            files.addAll(SweepReport.write(sweepStems, req.reportDir(), req.formats()));
+        }
         Path written = null;
         int total = 0;
         if (req.writeBaseline()) {
@@ -74,6 +109,23 @@ public final class Runner {
             total = fresh.size();
         }
         return new RunOutcome(result, files, written, written == null ? 0 : pairs.size(), total,
-                req.failOnViolation());
+                req.failOnViolation(), sweeps);
+    }
+
+    /**
+     * The bindings a swept model's pair is gated at: the first value of the sweep that fails, or the
+     * last value when every one passes.
+     */
+    private static InputBindings bindingAt(ModelSpec m, Sweep s) {
+        long at = s.range().to();
+        for (SweepPoint p : s.points()) {
+            if (!p.passed()) {
+                at = p.value();
+                break;
+            }
+        }
+        Map<String, Long> dims = new LinkedHashMap<>(m.dims());
+        dims.put(s.range().name(), at);
+        return m.bindings().withDims(dims);
     }
 }
