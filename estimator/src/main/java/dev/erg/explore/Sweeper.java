@@ -158,12 +158,14 @@ public final class Sweeper {
             }
         }
         List<String> breaks = new ArrayList<>();
+        List<Edge> edges = new ArrayList<>();
         for (BudgetRule r : BudgetRules.RULES) {
             Double limit = budget.limit(r.key());
             if (limit != null) {
-                String b = breakText(r, limit, points, fits);
+                Edge b = breakOf(r, limit, points, fits);
                 if (b != null) {
-                    breaks.add(b);
+                    breaks.add(b.text);
+                    edges.add(b);
                 }
             }
         }
@@ -179,15 +181,18 @@ public final class Sweeper {
         } else if (run == null || run.noPass) {
             bestText = noRun(pass, points);
         } else if (run.allPass) {
-            best = new Found(xs[xs.length - 1], false, true);
+            best = new Found(xs[xs.length - 1], false);
             bestText = "every point meets the budget; the largest swept value, " + at(best.value)
                     + ", is the largest known to pass (a larger one may too)";
         } else {
-            best = boundary(xs[run.passEnd], xs[run.failEnd], curveAll(fits), v -> point(v).passed());
-            bestText = (run.passEnd < run.failEnd ? "largest" : "smallest") + " value that meets every limit: "
-                    + at(best.value) + (best.byCurve ? ", found with the fitted curves" : ", found by bisection with"
-                    + " estimates (some limit's metric has no exact polynomial)") + " and confirmed by an estimate"
-                    + " there; " + at(best.value + (run.passEnd < run.failEnd ? 1 : -1)) + " fails";
+            boolean up = run.passEnd < run.failEnd;
+            best = fromEdges(edges, up);
+            if (best == null || !point(best.value).passed() || point(best.value + (up ? 1 : -1)).passed()) {
+                best = boundary(xs[run.passEnd], xs[run.failEnd], null, v -> point(v).passed());
+            }
+            bestText = (up ? "largest" : "smallest") + " value that meets every limit: " + at(best.value)
+                    + (best.byCurve ? ", found with the fitted curves" : ", found by bisection with estimates")
+                    + " and confirmed by an estimate there; " + at(best.value + (up ? 1 : -1)) + " fails";
         }
         return new Sweep(label, device.id(), range, budget, points, fits, breaks,
                 best == null ? null : best.value, best == null ? null : point(best.value), bestText);
@@ -209,8 +214,33 @@ public final class Sweeper {
                 + "), so no single boundary is given";
     }
 
-    /** Where one limit breaks, in words, or null when it holds at every point. */
-    private String breakText(BudgetRule r, double limit, List<SweepPoint> points, Map<SweepMetric, Polynomial> fits) {
+    /**
+     * One broken limit: its sentence, and when it breaks on one side only, the passing value at its
+     * edge, how it was found, and which way the passing side lies.
+     */
+    private record Edge(String text, Found found, boolean up) {
+    }
+
+    /**
+     * The value that meets every limit from the limits' own edges: the nearest edge to the passing side
+     * (each found with its curve, or with estimates when its metric has no exact polynomial); null
+     * when some limit breaks on both sides or not as a run.
+     */
+    private static Found fromEdges(List<Edge> edges, boolean up) {
+        Found best = null;
+        for (Edge e : edges) {
+            if (e.found == null || e.up != up) {
+                return null;
+            }
+            if (best == null || (up ? e.found.value < best.value : e.found.value > best.value)) {
+                best = e.found;
+            }
+        }
+        return best;
+    }
+
+    /** Where one limit breaks, or null when it holds at every point. */
+    private Edge breakOf(BudgetRule r, double limit, List<SweepPoint> points, Map<SweepMetric, Polynomial> fits) {
         boolean[] pass = new boolean[points.size()];
         boolean any = false;
         for (int i = 0; i < pass.length; i++) {
@@ -230,42 +260,18 @@ public final class Sweeper {
                     bad.add(Numbers.exact(points.get(i).value()));
                 }
             }
-            return head + " = " + String.join(", ", bad) + (run == null && !allFail(pass) ? " (swept points)" : "");
+            return new Edge(head + " = " + String.join(", ", bad) + " (swept points)", null, false);
         }
         if (run.noPass) {
-            return head + " from " + Numbers.exact(range.from()) + " to " + Numbers.exact(range.to())
-                    + " (every swept value)";
+            return new Edge(head + " from " + Numbers.exact(range.from()) + " to " + Numbers.exact(range.to())
+                    + " (every swept value)", null, false);
         }
         long[] xs = points.stream().mapToLong(SweepPoint::value).toArray();
         Found f = boundary(xs[run.passEnd], xs[run.failEnd], curveOne(r, limit, fits),
                 v -> point(v).check(r.metric().key).passed());
-        return run.passEnd < run.failEnd ? head + " ≥ " + Numbers.exact(f.value + 1)
-                : head + " ≤ " + Numbers.exact(f.value - 1);
-    }
-
-    private static boolean allFail(boolean[] pass) {
-        for (boolean b : pass) {
-            if (b) {
-                return false;
-            }
-        }
-        return true;
-    }
-
-    /** The fitted-curve test of every limit, or null when some limit's metric has no fit. */
-    private LongPredicate curveAll(Map<SweepMetric, Polynomial> fits) {
-        List<LongPredicate> all = new ArrayList<>();
-        for (BudgetRule r : BudgetRules.RULES) {
-            Double limit = budget.limit(r.key());
-            if (limit != null) {
-                LongPredicate one = curveOne(r, limit, fits);
-                if (one == null) {
-                    return null;
-                }
-                all.add(one);
-            }
-        }
-        return v -> all.stream().allMatch(p -> p.test(v));
+        boolean up = run.passEnd < run.failEnd;
+        return new Edge(up ? head + " ≥ " + Numbers.exact(f.value + 1) : head + " ≤ " + Numbers.exact(f.value - 1),
+                f, up);
     }
 
     private static LongPredicate curveOne(BudgetRule r, double limit, Map<SweepMetric, Polynomial> fits) {
@@ -278,7 +284,7 @@ public final class Sweeper {
     }
 
     /** A value found at a boundary; {@code byCurve} when the fitted curves found it and estimates agreed. */
-    private record Found(long value, boolean byCurve, boolean edge) {
+    private record Found(long value, boolean byCurve) {
     }
 
     /**
@@ -300,7 +306,7 @@ public final class Sweeper {
                 }
             }
             if (real.test(lo) && (lo + dir == fail || !real.test(lo + dir))) {
-                return new Found(lo, true, false);
+                return new Found(lo, true);
             }
         }
         long lo = pass;
@@ -313,7 +319,7 @@ public final class Sweeper {
                 hi = mid;
             }
         }
-        return new Found(lo, false, false);
+        return new Found(lo, false);
     }
 
     /**

@@ -90,4 +90,31 @@ public final class SymbolicModels {
         new OnnxWriter.Model(13, g).write(file);
         return file;
     }
+
+    /**
+     * The sample project's camera model at any picture size ({@code sample-project/src/main/onnx/
+     * feeder-any-size.onnx} is this model as written here): x[1,3,side,side] → Conv 3→16 3×3 stride 2
+     * pad 1 → Relu → Conv 16→32 3×3 stride 2 pad 1 → Relu → GlobalAveragePool → Flatten → Gemm
+     * 32→24 species. For a side divisible by 4 the ONNX Conv output sides are side/2 and side/4, so
+     * MACs = (side/2)²·16·27 + (side/4)²·32·144 + 32·24 = 396·side² + 768.
+     */
+    public static Path feederAnySize(Path file) {
+        OnnxWriter.Graph g = new OnnxWriter.Graph("feeder_any_size")
+                .inputDims("image", ElemType.FLOAT, 1L, 3L, "side", "side")
+                .weight("c1", ElemType.FLOAT, 16, 3, 3, 3)
+                .weight("c2", ElemType.FLOAT, 32, 16, 3, 3)
+                .weight("fc", ElemType.FLOAT, 24, 32)
+                .node("Conv", "stem", List.of("image", "c1"), List.of("a"), OnnxWriter.ints("pads", 1, 1, 1, 1),
+                        OnnxWriter.ints("strides", 2, 2))
+                .node("Relu", "stem_relu", List.of("a"), List.of("ar"))
+                .node("Conv", "block", List.of("ar", "c2"), List.of("b"), OnnxWriter.ints("pads", 1, 1, 1, 1),
+                        OnnxWriter.ints("strides", 2, 2))
+                .node("Relu", "block_relu", List.of("b"), List.of("br"))
+                .node("GlobalAveragePool", "pool", List.of("br"), List.of("g"))
+                .node("Flatten", "flat", List.of("g"), List.of("f"))
+                .node("Gemm", "species", List.of("f", "fc"), List.of("logits"), OnnxWriter.attr("transB", 1L))
+                .output("logits", ElemType.FLOAT);
+        new OnnxWriter.Model(13, g).write(file);
+        return file;
+    }
 }

@@ -127,6 +127,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
                 where += " (" + label + ")";
                 ModelSpec spec = new ModelSpec(label, resolve(base, label, where + ".file"))
                         .withBindings(bindings(where, m));
+                spec = spec.withSweep(sweep(where, m, spec));
                 if (m.getBudget() != null && checksBudgets()) {
                     spec = spec.withBudget(m.getBudget().toBudget(where + ".budget"));
                 }
@@ -172,6 +173,25 @@ abstract class AbstractErgMojo extends AbstractMojo {
             throw new MojoExecutionException("erg: " + where + ": not a valid path: " + path + " (" + e.getReason()
                     + ")");
         }
+    }
+
+    /** The model's {@code <sweeps>} (at most one), or null; it must not bind a dim {@code <dimensions>} binds. */
+    private static dev.erg.explore.SweepRange sweep(String where, ModelConfig m, ModelSpec spec)
+            throws MojoExecutionException {
+        List<String> sweeps = m.getSweeps();
+        if (sweeps == null || sweeps.isEmpty()) {
+            return null;
+        }
+        if (sweeps.size() > 1) {
+            throw new MojoExecutionException("erg: " + where + ".sweeps: one sweep per model (got " + sweeps.size()
+                    + "); the other symbolic dims are bound with <dimensions>");
+        }
+        dev.erg.explore.SweepRange r = dev.erg.explore.SweepRange.parse("erg: " + where + ".sweeps", sweeps.get(0));
+        if (spec.dims().containsKey(r.name())) {
+            throw new MojoExecutionException("erg: " + where + ": <sweeps> and <dimensions> both bind '" + r.name()
+                    + "'; give one of the two");
+        }
+        return r;
     }
 
     /** The model's input bindings: {@code <dimensions>}, {@code <shapes>} and {@code <values>}. */

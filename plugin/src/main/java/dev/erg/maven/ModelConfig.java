@@ -15,6 +15,7 @@ import java.util.Map;
  *   &lt;budget&gt;&lt;maxLatencyMs&gt;80&lt;/maxLatencyMs&gt;&lt;/budget&gt;
  *   &lt;shapes&gt;&lt;input&gt;1x576&lt;/input&gt;&lt;/shapes&gt;
  *   &lt;values&gt;&lt;sr&gt;16000&lt;/sr&gt;&lt;/values&gt;
+ *   &lt;sweeps&gt;&lt;sweep&gt;seq=64..1024:64&lt;/sweep&gt;&lt;/sweeps&gt;
  * &lt;/model&gt;
  * </pre>
  */
@@ -32,6 +33,20 @@ public class ModelConfig {
 
     /** Constant values of small graph inputs, e.g. {@code <sr>16000</sr>} or {@code <ids>1,2,3</ids>}. */
     private Map<String, String> values = new LinkedHashMap<>();
+
+    /**
+     * A sweep of one symbolic dimension, {@code NAME=FROM..TO:STEP} or {@code NAME=FROM..TO*FACTOR},
+     * e.g. {@code <sweeps><sweep>seq=64..1024:64</sweep></sweeps>}; at most one per model.
+     */
+    private java.util.List<String> sweeps = new java.util.ArrayList<>();
+
+    public java.util.List<String> getSweeps() {
+        return sweeps;
+    }
+
+    public void setSweeps(java.util.List<String> sweeps) {
+        this.sweeps = sweeps;
+    }
 
     public ModelConfig() {
     }
