@@ -21,6 +21,13 @@ public final class Polynomial {
      */
     public static final double FLOAT_TOLERANCE = 1e-9;
 
+    /**
+     * The highest degree tried. Costs of networks are polynomials of low degree in one dim (attention
+     * is 2 in the sequence length, a convolution 2 in a square picture's side); a metric that needs a
+     * higher one is not a polynomial in practice (a roofline bound or a tile count changing with the dim).
+     */
+    public static final int MAX_DEGREE = 6;
+
     private final List<BigFraction> coefficients;
 
     private Polynomial(List<BigFraction> coefficients) {
@@ -56,9 +63,9 @@ public final class Polynomial {
     }
 
     /**
-     * The lowest-degree polynomial that is exact on the points, or null when none of degree below
-     * {@code xs.length - 1} is (a polynomial through every point always exists and says nothing; at
-     * least one point beyond those that fix the coefficients must confirm it). Integer metrics must
+     * The lowest-degree polynomial that is exact on the points, or null when none of degree up to
+     * {@link #MAX_DEGREE} and below {@code xs.length - 1} is (a polynomial through every point always
+     * exists and says nothing; at least one point beyond those that fix the coefficients must confirm it). Integer metrics must
      * match exactly; floating ones within {@link #FLOAT_TOLERANCE} of their largest value.
      *
      * @param xs      the dimension's values, distinct
@@ -72,7 +79,7 @@ public final class Polynomial {
             scale = Math.max(scale, Math.abs(y));
         }
         double tol = integer ? 0 : FLOAT_TOLERANCE * scale;
-        for (int d = 0; d <= n - 2; d++) {
+        for (int d = 0; d <= Math.min(n - 2, MAX_DEGREE); d++) {
             Polynomial p = interpolate(xs, ys, d + 1);
             if (p.fitsAll(xs, ys, integer, tol)) {
                 return p;

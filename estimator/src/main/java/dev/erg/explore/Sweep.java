@@ -46,7 +46,8 @@ public record Sweep(String model, String device, SweepRange range, Budget budget
     /** The fitted formula of a metric, or a sentence saying there is none. */
     public String formula(SweepMetric m) {
         Polynomial p = fits.get(m);
-        return p == null ? "no polynomial of degree below " + (points.size() - 1) + " is exact on the points"
+        return p == null ? "no polynomial of degree " + Math.min(points.size() - 2, Polynomial.MAX_DEGREE)
+                + " or below is exact on the points"
                 : p.formula(range.name(), m.integer);
     }
 
