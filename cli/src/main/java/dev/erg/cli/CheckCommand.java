@@ -30,7 +30,7 @@ import picocli.CommandLine.Parameters;
 @Command(name = "check", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Checks models against a budget and a baseline on one or more device profiles;"
                 + " exits 1 when a limit is broken.")
-final class CheckCommand implements Callable<Integer> {
+class CheckCommand implements Callable<Integer> {
     @Parameters(arity = "1..*", paramLabel = "MODEL.onnx", description = "The ONNX model file(s).")
     List<Path> models;
 
@@ -120,6 +120,9 @@ final class CheckCommand implements Callable<Integer> {
             out.println();
         }
         out.print(Reports.console(result, top));
+        for (String line : outcome.adviceLines(adviceCount())) {
+            out.println(line);
+        }
         if (req.writesReports()) {
             int n = outcome.reports().size();
             out.println("reports written to " + reportDir + " (" + n + (n == 1 ? " file)" : " files)"));
@@ -134,6 +137,11 @@ final class CheckCommand implements Callable<Integer> {
         }
         out.flush();
         return outcome.failed() ? Main.VIOLATION : Main.OK;
+    }
+
+    /** How many ways to meet a failed budget are printed per pair (all when negative). */
+    int adviceCount() {
+        return dev.erg.run.RunOutcome.MESSAGE_CANDIDATES;
     }
 
     /** The options as the library's run request; a malformed option is a usage error. */

@@ -19,7 +19,7 @@ import picocli.CommandLine.Command;
 @Command(name = "erg", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Counts the multiply-accumulates and bytes of an ONNX model, node by node, estimates its"
                 + " energy and latency on a device profile, and checks it against a budget.",
-        subcommands = {AnalyzeCommand.class, EstimateCommand.class, CheckCommand.class,
+        subcommands = {AnalyzeCommand.class, EstimateCommand.class, CheckCommand.class, AdviseCommand.class,
                 CommandLine.HelpCommand.class})
 public final class Main implements Callable<Integer> {
     public static final int OK = 0;

@@ -45,6 +45,7 @@ abstract class ProfileFields {
 
     static {
         UNIT_STEMS.put("clock", List.of("clock-mhz"));
+        UNIT_STEMS.put("max-clock", List.of("max-clock-mhz"));
         UNIT_STEMS.put("static-power", List.of("static-power-mw"));
         UNIT_STEMS.put("mac-energy", List.of("mac-energy-fj", "mac-energy-pj"));
         UNIT_STEMS.put("op-energy", List.of("op-energy-fj", "op-energy-pj"));

@@ -20,7 +20,8 @@ import java.util.Set;
  * with one line naming the file, the line and the key path. Engines are read by {@link EngineReader}.
  */
 final class ProfileReader extends ProfileFields {
-    static final List<String> ROOT_KEYS = List.of("$schema", "name", "description", "clock-mhz", "static-power-mw",
+    static final List<String> ROOT_KEYS = List.of("$schema", "name", "description", "clock-mhz", "max-clock-mhz",
+            "static-power-mw",
             "deploy-precision", "engines", "memories", "sources");
     static final List<String> REGISTER_KEYS = List.of("id", "level", "read-energy-fj-per-byte",
             "read-energy-pj-per-byte", "write-energy-fj-per-byte", "write-energy-pj-per-byte");
@@ -60,6 +61,11 @@ final class ProfileReader extends ProfileFields {
         String description = top.get("description") != null ? text(top, "description") : null;
         double clockMhz = positive(top, requireEntry(top, "clock-mhz",
                 "a profile needs name, clock-mhz, engines and memories"));
+        double maxClockMhz = top.get("max-clock-mhz") != null ? positive(top, top.get("max-clock-mhz")) : 0;
+        if (maxClockMhz > 0 && maxClockMhz < clockMhz) {
+            throw fail(top.get("max-clock-mhz").value.line, top.sub("max-clock-mhz"), "must be at least clock-mhz ("
+                    + clockMhz + "), not " + maxClockMhz);
+        }
         double staticMw = top.get("static-power-mw") != null ? nonNegative(top, top.get("static-power-mw")) : 0;
         String deploy = null;
         if (top.get("deploy-precision") != null) {
@@ -73,8 +79,9 @@ final class ProfileReader extends ProfileFields {
         List<Engine> engines = new EngineReader(label).engines(top);
         Memory[] levels = memories(top);
         Map<String, String> sources = sources(top, root);
-        return new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], levels[2], staticMw,
-                deploy, sources);
+        DeviceProfile p = new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], levels[2],
+                staticMw, deploy, sources);
+        return maxClockMhz > 0 ? p.withMaxClockMhz(maxClockMhz) : p;
     }
 
     // ---- memories ----

@@ -12,12 +12,15 @@ import dev.erg.estimate.DeviceEstimate;
 import dev.erg.estimate.Estimator;
 import dev.erg.report.Reports;
 import dev.erg.workload.ModelWorkload;
+import dev.erg.explore.Advice;
+import dev.erg.explore.Advisor;
 import dev.erg.explore.Sweep;
 import dev.erg.explore.SweepPoint;
 import dev.erg.explore.Sweeper;
 import dev.erg.graph.InputBindings;
 import dev.erg.onnx.OnnxModel;
 import dev.erg.onnx.OnnxReader;
+import dev.erg.report.AdviceReport;
 import dev.erg.report.SweepReport;
 import dev.erg.workload.PrecisionOverrides;
 import java.nio.file.Path;
@@ -56,6 +59,8 @@ public final class Runner {
         List<PairResult> pairs = new ArrayList<>();
         List<String> notes = new ArrayList<>();
         List<Sweep> sweeps = new ArrayList<>();
+        List<Advice> advice = new ArrayList<>();
+        Map<String, Advice> adviceStems = new LinkedHashMap<>();
         Map<String, Sweep> sweepStems = new LinkedHashMap<>();
         for (ModelSpec m : req.models()) {
             progress.say("analysing " + m.label());
@@ -90,8 +95,15 @@ public final class Runner {
                 DeviceProfile profile = profiles.get(i);
                 progress.say("estimating " + m.label() + " on " + profile.id());
                 DeviceEstimate e = Estimator.estimate(perDevice != null ? perDevice.get(i) : w, profile);
-                pairs.add(Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
-                        req.failOnUnmodelled()));
+                PairResult pair = Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
+                        req.failOnUnmodelled());
+                pairs.add(pair);
+                Sweep sw = perDevice != null ? sweeps.get(sweeps.size() - profiles.size() + i) : null;
+                Advice a = Advisor.advise(pair, sw);
+                if (a != null) {
+                    advice.add(a);
+                    adviceStems.put(Reports.stem(m.label(), d.label()), a);
+                }
             }
         }
         GateResult result = Gate.result(pairs, req.budget(), growth, req.baselineLabel(), baseline != null, notes);
@@ -99,6 +111,7 @@ public final class Runner {
         if (req.writesReports()) {
             files.addAll(Reports.write(result, req.reportDir(), req.formats()));
             files.addAll(SweepReport.write(sweepStems, req.reportDir(), req.formats()));
+            files.addAll(AdviceReport.write(adviceStems, req.reportDir(), req.formats()));
         }
         Path written = null;
         int total = 0;
@@ -109,7 +122,7 @@ public final class Runner {
             total = fresh.size();
         }
         return new RunOutcome(result, files, written, written == null ? 0 : pairs.size(), total,
-                req.failOnViolation(), sweeps);
+                req.failOnViolation(), sweeps, advice);
     }
 
     /**

@@ -67,6 +67,15 @@ abstract class AbstractErgMojo extends AbstractMojo {
     @Parameter(property = "erg.failOnViolation", defaultValue = "true")
     boolean failOnViolation;
 
+    /**
+     * Logs every computed way to meet a failed budget (lower precision on the costliest layers or the
+     * whole model, a higher clock, more SRAM, another engine or dataflow, a smaller swept dim); without
+     * it the failure message lists the first three of each failing model and device. The reports list
+     * them all either way.
+     */
+    @Parameter(property = "erg.advise", defaultValue = "false")
+    boolean advise;
+
     /** Skips the goal. */
     @Parameter(property = "erg.skip", defaultValue = "false")
     boolean skip;
@@ -233,6 +242,11 @@ abstract class AbstractErgMojo extends AbstractMojo {
         for (String n : r.notes()) {
             getLog().warn(PREFIX + n);
         }
+        if (advise || (!o.failed() && !o.advice().isEmpty())) {
+            for (String line : o.adviceLines(advise ? -1 : RunOutcome.MESSAGE_CANDIDATES)) {
+                getLog().info(PREFIX + line);
+            }
+        }
     }
 
     /**
@@ -245,7 +259,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
             return;
         }
         if (o.failed()) {
-            throw new MojoFailureException(r.failureMessage());
+            throw new MojoFailureException(o.failureMessage());
         }
         int n = r.failures().size();
         getLog().warn(PREFIX + n + (n == 1 ? " limit does" : " limits do") + " not hold; " + reportOnlyHint);
