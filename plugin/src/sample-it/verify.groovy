@@ -25,4 +25,26 @@ erg.logged(' mW at 4 fps exceeds the limit of 2 mW; static power is 3 mW of it (
 erg.logged(' KiB exceed the limit of 256 KiB (top layers by weight bytes: ')
 // the reports of the last run are on disk and their paths were logged
 erg.reportsOf(tight)
+// ...and the failure message ends with the first three ways to meet the budget, computed estimates
+erg.line('[ERROR] ways to meet the budget, src/main/onnx/feeder.onnx on src/erg/feeder-npu.yaml (each candidate is a computed estimate of the changed model or device, not a measurement):')
+erg.logged('[ERROR]   1. int4 on the whole model: fixes 1 of 2 failing limits, closes ')
+erg.logged('[ERROR]   2. ')
+erg.logged('[ERROR]   3. ')
+assert new File(basedir, 'target/erg/feeder.feeder-npu.ways.md').getText('UTF-8').startsWith('# Ways to meet the budget: ')
+
+// -Pwider-view: the sweep of the picture side, its formulas (hand count in docs/method.md), the edge
+// of the activation limit, and its report files in their own folder.
+erg.line('[INFO] erg: sweeping side=64..512:32 of src/main/onnx/feeder-any-size.onnx on src/erg/feeder-npu.yaml')
+erg.line('[INFO] erg:   MACs (MACs), degree 2: 396·side² + 768')
+erg.line('[INFO] erg:   peak activation bytes (B), degree 2: 4·side²')
+erg.line('[INFO] erg:   peak activations exceed the limit of 160 KiB for side ≥ 203')
+erg.logged('largest value that meets every limit: side = 202, found with the fitted curves and confirmed by an estimate there; side = 203 fails')
+['json', 'html', 'md'].each { ext ->
+    def f = new File(basedir, "target/erg-wider/feeder-any-size.feeder-npu.sweep.${ext}")
+    assert f.isFile(): "no sweep report ${f}"
+    assert f.getText('UTF-8').contains('396·side² + 768'): "${f} has no MACs formula"
+}
+// the swept model fails at side = 224; the sweep's value is one of the ways to meet its budget
+assert new File(basedir, 'target/erg-wider/feeder-any-size.feeder-npu.ways.md').getText('UTF-8')
+        .contains('| side = 202, the value the sweep found | meets every limit |')
 return true

@@ -30,7 +30,7 @@ import picocli.CommandLine.Parameters;
 @Command(name = "check", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
         description = "Checks models against a budget and a baseline on one or more device profiles;"
                 + " exits 1 when a limit is broken.")
-final class CheckCommand implements Callable<Integer> {
+class CheckCommand implements Callable<Integer> {
     @Parameters(arity = "1..*", paramLabel = "MODEL.onnx", description = "The ONNX model file(s).")
     List<Path> models;
 
@@ -92,6 +92,7 @@ final class CheckCommand implements Callable<Integer> {
 
     @CommandLine.Mixin
     PrecisionOptions precision = new PrecisionOptions();
+    SweepOption sweepOption = new SweepOption();
 
     @Option(names = "--top", paramLabel = "N", defaultValue = "" + ConsoleReport.DEFAULT_TOP,
             description = "How many layers the console lists per pair, most energy first (default: ${DEFAULT-VALUE}).")
@@ -109,11 +110,20 @@ final class CheckCommand implements Callable<Integer> {
         for (String n : result.notes()) {
             out.println("note: " + n);
         }
+        for (String line : outcome.sweepLines()) {
+            out.println(line);
+        }
+        if (!outcome.sweeps().isEmpty()) {
+            out.println();
+        }
         if (result.baselineNote() != null && !writeBaseline) {
             out.println("note: " + result.baselineNote() + "; create it with --write-baseline and commit it");
             out.println();
         }
         out.print(Reports.console(result, top));
+        for (String line : outcome.adviceLines(adviceCount())) {
+            out.println(line);
+        }
         if (req.writesReports()) {
             int n = outcome.reports().size();
             out.println("reports written to " + reportDir + " (" + n + (n == 1 ? " file)" : " files)"));
@@ -128,6 +138,11 @@ final class CheckCommand implements Callable<Integer> {
         }
         out.flush();
         return outcome.failed() ? Main.VIOLATION : Main.OK;
+    }
+
+    /** How many ways to meet a failed budget are printed per pair (all when negative). */
+    int adviceCount() {
+        return dev.erg.run.RunOutcome.MESSAGE_CANDIDATES;
     }
 
     /** The options as the library's run request; a malformed option is a usage error. */
@@ -157,8 +172,13 @@ final class CheckCommand implements Callable<Integer> {
                 .maxEnergyPerFrameUj(maxEnergyPerFrameUj).maxLatencyMs(maxLatencyMs).maxWeightKib(maxWeightKib)
                 .maxActivationKib(maxActivationKib).build();
         List<ModelSpec> specs = new ArrayList<>();
+        dev.erg.explore.SweepRange sweep = sweepOption.range(spec);
+        if (sweep != null && bindings.dims().containsKey(sweep.name())) {
+            throw Options.usage(spec, "--sweep " + sweep.name() + " and --dim " + sweep.name()
+                    + " bind the same dimension; give one of the two");
+        }
         for (Path m : models) {
-            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings).withPrecision(rules));
+            specs.add(new ModelSpec(m.toString(), m).withBindings(bindings).withPrecision(rules).withSweep(sweep));
         }
         RunRequest.Builder b = RunRequest.builder().failOnUnmodelled(modelOptions.failOnUnmodelled)
                 .failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);

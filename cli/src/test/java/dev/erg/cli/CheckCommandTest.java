@@ -60,7 +60,9 @@ class CheckCommandTest {
                 + " (top layers by energy: conv 100.0%)";
         assertTrue(r.out.contains("\n  FAIL " + msg + "\n"), r.out);
         assertTrue(r.out.contains("\nerg: 1 budget violation:\n  - " + msg + "\n"), r.out);
-        assertEquals(List.of("TEST-erg.example1.example-device.xml", "example1.example-device.json"), files(reports));
+        // The pair fails, so the ways to meet its budget are written too (STEM.ways.json for the json format).
+        assertEquals(List.of("TEST-erg.example1.example-device.xml", "example1.example-device.json",
+                "example1.example-device.ways.json"), files(reports));
         JsonNode root = new ObjectMapper().readTree(reports.resolve("example1.example-device.json").toFile());
         assertFalse(root.get("passed").asBoolean());
         assertEquals(msg, root.at("/checks/1/message").asText());

@@ -48,7 +48,16 @@ public final class Analyzer {
      *                           with {@code failOnUnmodelled}, when some node has no rule
      */
     public static ModelWorkload analyze(Path file, InputBindings bindings, AnalysisOptions options) {
-        OnnxModel model = OnnxReader.read(file);
+        return analyze(OnnxReader.read(file), bindings, options);
+    }
+
+    /**
+     * Analyses a model already read: links, shapes and counts it with {@code bindings}. The model is
+     * not changed, so one read serves many bindings (a sweep over a symbolic dim).
+     *
+     * @throws BadInputException as {@link #analyze(Path, InputBindings, AnalysisOptions)}
+     */
+    public static ModelWorkload analyze(OnnxModel model, InputBindings bindings, AnalysisOptions options) {
         Graph graph = GraphBuilder.build(model, bindings);
         ShapeInference.run(graph);
         ModelWorkload w = WorkloadCounter.count(graph);

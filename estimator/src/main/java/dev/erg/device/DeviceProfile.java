@@ -19,6 +19,7 @@ public final class DeviceProfile {
     private final String deployPrecision;
     private final Map<String, String> sources;
     private final List<Memory> caches;
+    private double maxClockMhz;
 
     public DeviceProfile(String id, String name, double clockMhz, List<Engine> engines, Memory registers, Memory sram,
                          Memory dram, double staticPowerMw, String deployPrecision, Map<String, String> sources) {
@@ -73,6 +74,57 @@ public final class DeviceProfile {
 
     public double clockMhz() {
         return clockMhz;
+    }
+
+    /** The highest clock the profile declares the part may run at ({@code max-clock-mhz}); the clock without one. */
+    public double maxClockMhz() {
+        return maxClockMhz > 0 ? maxClockMhz : clockMhz;
+    }
+
+    /** This profile with a declared maximum clock (0: none). */
+    public DeviceProfile withMaxClockMhz(double mhz) {
+        DeviceProfile p = copy(clockMhz, engines, sram);
+        p.maxClockMhz = mhz;
+        return p;
+    }
+
+    /** This profile at another clock; static power, energies and the maximum are kept. */
+    public DeviceProfile withClockMhz(double mhz) {
+        return copy(mhz, engines, sram);
+    }
+
+    /** This profile with another SRAM. */
+    public DeviceProfile withSram(Memory s) {
+        return copy(clockMhz, engines, s);
+    }
+
+    /** This profile with engine {@code i} moved first, so that the estimator maps MAC layers onto it. */
+    public DeviceProfile withArrayFirst(int i) {
+        java.util.List<Engine> es = new java.util.ArrayList<>(engines);
+        es.add(0, es.remove(i));
+        return copy(clockMhz, es, sram);
+    }
+
+    /** This profile with engine {@code i} using dataflow {@code d}. */
+    public DeviceProfile withDataflow(int i, Dataflow d) {
+        java.util.List<Engine> es = new java.util.ArrayList<>(engines);
+        es.set(i, es.get(i).withDataflow(d));
+        return copy(clockMhz, es, sram);
+    }
+
+    private DeviceProfile copy(double clock, List<Engine> es, Memory s) {
+        DeviceProfile p;
+        if (caches.isEmpty()) {
+            p = new DeviceProfile(id, name, description, clock, es, registers, s, dram, staticPowerMw,
+                    deployPrecision, sources);
+        } else { // a processor: the last cache level is the one that holds weights and activations
+            List<Memory> cs = new java.util.ArrayList<>(caches);
+            cs.set(cs.size() - 1, s);
+            p = new DeviceProfile(id, name, description, clock, es, registers, null, cs, dram, staticPowerMw,
+                    deployPrecision, sources);
+        }
+        p.maxClockMhz = maxClockMhz;
+        return p;
     }
 
     public double clockHz() {

@@ -195,6 +195,12 @@ public final class Engine {
         this.layerOverheadCycles = layerOverheadCycles;
     }
 
+    /** This engine with another dataflow, every other parameter kept. */
+    public Engine withDataflow(Dataflow d) {
+        return of(id, kind, rows, columns, lanes, d, energyFj, multiplyFraction, accumulatorBits, layerOverheadCycles,
+                binary, analog, macro);
+    }
+
     public String id() {
         return id;
     }

@@ -43,6 +43,11 @@ final class ProfileReader extends ProfileFields {
         String description = top.get("description") != null ? text(top, "description") : null;
         double clockMhz = positive(top, requireEntry(top, "clock-mhz",
                 "a profile needs name, clock-mhz, engines and memories"));
+        double maxClockMhz = top.get("max-clock-mhz") != null ? positive(top, top.get("max-clock-mhz")) : 0;
+        if (maxClockMhz > 0 && maxClockMhz < clockMhz) {
+            throw fail(top.get("max-clock-mhz").value.line, top.sub("max-clock-mhz"), "must be at least clock-mhz ("
+                    + clockMhz + "), not " + maxClockMhz);
+        }
         double staticMw = top.get("static-power-mw") != null ? nonNegative(top, top.get("static-power-mw")) : 0;
         String deploy = null;
         if (top.get("deploy-precision") != null) {
@@ -58,8 +63,9 @@ final class ProfileReader extends ProfileFields {
         Memory[] levels = memories(top, allCpu, caches);
         energiesAllOrNone(top, engines, levels, caches);
         Map<String, String> sources = sources(top, root);
-        return new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], caches, levels[2],
-                staticMw, deploy, sources);
+        DeviceProfile p = new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], caches,
+                levels[2], staticMw, deploy, sources);
+        return maxClockMhz > 0 ? p.withMaxClockMhz(maxClockMhz) : p;
     }
 
     /**

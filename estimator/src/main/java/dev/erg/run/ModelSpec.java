@@ -2,6 +2,7 @@ package dev.erg.run;
 
 import dev.erg.budget.Budget;
 import dev.erg.error.BadInputException;
+import dev.erg.explore.SweepRange;
 import dev.erg.graph.InputBindings;
 import dev.erg.workload.PrecisionOverrides;
 import java.nio.file.Path;
@@ -23,36 +24,52 @@ public final class ModelSpec {
     private final InputBindings bindings;
     private final Budget budget;
     private final PrecisionOverrides precision;
+    private final SweepRange sweep;
 
     public ModelSpec(String label, Path file) {
-        this(label, file, InputBindings.NONE, Budget.none(), PrecisionOverrides.NONE);
+        this(label, file, InputBindings.NONE, Budget.none(), PrecisionOverrides.NONE, null);
     }
 
     public ModelSpec(String label, Path file, Map<String, Long> dims) {
-        this(label, file, InputBindings.ofDims(dims), Budget.none(), PrecisionOverrides.NONE);
+        this(label, file, InputBindings.ofDims(dims), Budget.none(), PrecisionOverrides.NONE, null);
     }
 
-    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget, PrecisionOverrides precision) {
+    private ModelSpec(String label, Path file, InputBindings bindings, Budget budget, PrecisionOverrides precision,
+                      SweepRange sweep) {
         this.label = label;
         this.file = file;
         this.bindings = bindings == null ? InputBindings.NONE : bindings;
         this.budget = budget == null ? Budget.none() : budget;
         this.precision = precision == null ? PrecisionOverrides.NONE : precision;
+        this.sweep = sweep;
+    }
+
+    /**
+     * This model swept over a symbolic dim: every value is estimated and checked, and the model's pair
+     * in the gate is taken at the first failing value (the last value when all pass).
+     */
+    public ModelSpec withSweep(SweepRange sweep) {
+        return new ModelSpec(label, file, bindings, budget, precision, sweep);
+    }
+
+    /** The sweep of this model, or null. */
+    public SweepRange sweep() {
+        return sweep;
     }
 
     /** This model with {@code dims} as the values of its symbolic dims (its shapes and values kept). */
     public ModelSpec withDims(Map<String, Long> dims) {
-        return new ModelSpec(label, file, bindings.withDims(dims), budget, precision);
+        return new ModelSpec(label, file, bindings.withDims(dims), budget, precision, sweep);
     }
 
     /** This model with every kind of input binding: symbolic dims, whole shapes, constant values. */
     public ModelSpec withBindings(InputBindings bindings) {
-        return new ModelSpec(label, file, bindings, budget, precision);
+        return new ModelSpec(label, file, bindings, budget, precision, sweep);
     }
 
     /** This model with its own limits: they override the device's and the run's, limit by limit. */
     public ModelSpec withBudget(Budget budget) {
-        return new ModelSpec(label, file, bindings, budget, precision);
+        return new ModelSpec(label, file, bindings, budget, precision, sweep);
     }
 
     /**
@@ -60,7 +77,7 @@ public final class ModelSpec {
      * every device (the first rule that matches a node decides; see {@link PrecisionOverrides}).
      */
     public ModelSpec withPrecision(PrecisionOverrides rules) {
-        return new ModelSpec(label, file, bindings, budget, rules);
+        return new ModelSpec(label, file, bindings, budget, rules, sweep);
     }
 
     /**

@@ -13,8 +13,20 @@ import dev.erg.estimate.Estimator;
 import dev.erg.report.Reports;
 import dev.erg.workload.ModelWorkload;
 import dev.erg.workload.NodeWork;
+import dev.erg.explore.Advice;
+import dev.erg.explore.Advisor;
+import dev.erg.explore.Sweep;
+import dev.erg.explore.SweepPoint;
+import dev.erg.explore.Sweeper;
+import dev.erg.graph.InputBindings;
+import dev.erg.onnx.OnnxModel;
+import dev.erg.onnx.OnnxReader;
+import dev.erg.report.AdviceReport;
+import dev.erg.report.SweepReport;
 import dev.erg.workload.PrecisionOverrides;
 import java.nio.file.Path;
+import java.util.LinkedHashMap;
+import java.util.Map;
 import java.util.ArrayList;
 import java.util.List;
 
@@ -47,9 +59,32 @@ public final class Runner {
         Double growth = req.growthChecked();
         List<PairResult> pairs = new ArrayList<>();
         List<String> notes = new ArrayList<>();
+        List<Sweep> sweeps = new ArrayList<>();
+        List<Advice> advice = new ArrayList<>();
+        Map<String, Advice> adviceStems = new LinkedHashMap<>();
+        Map<String, Sweep> sweepStems = new LinkedHashMap<>();
         for (ModelSpec m : req.models()) {
             progress.say("analysing " + m.label());
-            ModelWorkload w = Analyzer.analyze(m.file(), m.bindings(), AnalysisOptions.DEFAULTS);
+            List<ModelWorkload> perDevice = null;
+            if (m.sweep() != null) {
+                OnnxModel om = OnnxReader.read(m.file());
+                Sweeper.requireSweepable(om, m.bindings(), m.sweep());
+                perDevice = new ArrayList<>();
+                for (int i = 0; i < profiles.size(); i++) {
+                    DeviceSpec d = req.devices().get(i);
+                    progress.say("sweeping " + m.sweep() + " of " + m.label() + " on " + profiles.get(i).id());
+                    Sweep s = Sweeper.run(om, m.label(), m.bindings(), m.sweep(), profiles.get(i), req.budgetOf(m, d),
+                            m.precision());
+                    for (String line : s.lines()) {
+                        progress.say(line);
+                    }
+                    sweeps.add(s);
+                    sweepStems.put(Reports.stem(m.label(), d.label()), s);
+                    perDevice.add(Analyzer.analyze(om, bindingAt(m, s), AnalysisOptions.DEFAULTS));
+                }
+            }
+            ModelWorkload w = perDevice != null ? perDevice.get(0)
+                    : Analyzer.analyze(m.file(), m.bindings(), AnalysisOptions.DEFAULTS);
             notes.addAll(Analyzer.unusedDimNotes(w, m.dims()));
             if (!w.complete() && !req.failOnUnmodelled()) {
                 notes.add(w.incompleteness() + ". Those nodes are not priced, so every total is a lower bound"
@@ -61,13 +96,25 @@ public final class Runner {
                 DeviceSpec d = req.devices().get(i);
                 DeviceProfile profile = profiles.get(i);
                 progress.say("estimating " + m.label() + " on " + profile.id());
-                DeviceEstimate e = Estimator.estimate(w, profile, m.precision());
-                pairs.add(Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
-                        req.failOnUnmodelled()));
+                DeviceEstimate e = Estimator.estimate(perDevice != null ? perDevice.get(i) : w, profile, m.precision());
+                PairResult pair = Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
+                        req.failOnUnmodelled());
+                pairs.add(pair);
+                Sweep sw = perDevice != null ? sweeps.get(sweeps.size() - profiles.size() + i) : null;
+                Advice a = Advisor.advise(pair, sw);
+                if (a != null) {
+                    advice.add(a);
+                    adviceStems.put(Reports.stem(m.label(), d.label()), a);
+                }
             }
         }
         GateResult result = Gate.result(pairs, req.budget(), growth, req.baselineLabel(), baseline != null, notes);
-        List<Path> files = req.writesReports() ? Reports.write(result, req.reportDir(), req.formats()) : List.of();
+        List<Path> files = new ArrayList<>();
+        if (req.writesReports()) {
+            files.addAll(Reports.write(result, req.reportDir(), req.formats()));
+            files.addAll(SweepReport.write(sweepStems, req.reportDir(), req.formats()));
+            files.addAll(AdviceReport.write(adviceStems, req.reportDir(), req.formats()));
+        }
         Path written = null;
         int total = 0;
         if (req.writeBaseline()) {
@@ -77,7 +124,24 @@ public final class Runner {
             total = fresh.size();
         }
         return new RunOutcome(result, files, written, written == null ? 0 : pairs.size(), total,
-                req.failOnViolation());
+                req.failOnViolation(), sweeps, advice);
+    }
+
+    /**
+     * The bindings a swept model's pair is gated at: the first value of the sweep that fails, or the
+     * last value when every one passes.
+     */
+    private static InputBindings bindingAt(ModelSpec m, Sweep s) {
+        long at = s.range().to();
+        for (SweepPoint p : s.points()) {
+            if (!p.passed()) {
+                at = p.value();
+                break;
+            }
+        }
+        Map<String, Long> dims = new LinkedHashMap<>(m.dims());
+        dims.put(s.range().name(), at);
+        return m.bindings().withDims(dims);
     }
 
     /**

@@ -69,6 +69,15 @@ abstract class AbstractErgMojo extends AbstractMojo {
     @Parameter(property = "erg.failOnViolation", defaultValue = "true")
     boolean failOnViolation;
 
+    /**
+     * Logs every computed way to meet a failed budget (lower precision on the costliest layers or the
+     * whole model, a higher clock, more SRAM, another engine or dataflow, a smaller swept dim); without
+     * it the failure message lists the first three of each failing model and device. The reports list
+     * them all either way.
+     */
+    @Parameter(property = "erg.advise", defaultValue = "false")
+    boolean advise;
+
     /** Skips the goal. */
     @Parameter(property = "erg.skip", defaultValue = "false")
     boolean skip;
@@ -129,6 +138,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
                 where += " (" + label + ")";
                 ModelSpec spec = new ModelSpec(label, resolve(base, label, where + ".file"))
                         .withBindings(bindings(where, m)).withPrecision(precision(where, m.getPrecision()));
+                spec = spec.withSweep(sweep(where, m, spec));
                 if (m.getBudget() != null && checksBudgets()) {
                     spec = spec.withBudget(m.getBudget().toBudget(where + ".budget"));
                 }
@@ -195,6 +205,25 @@ abstract class AbstractErgMojo extends AbstractMojo {
         return new PrecisionOverrides(out);
     }
 
+    /** The model's {@code <sweeps>} (at most one), or null; it must not bind a dim {@code <dimensions>} binds. */
+    private static dev.erg.explore.SweepRange sweep(String where, ModelConfig m, ModelSpec spec)
+            throws MojoExecutionException {
+        List<String> sweeps = m.getSweeps();
+        if (sweeps == null || sweeps.isEmpty()) {
+            return null;
+        }
+        if (sweeps.size() > 1) {
+            throw new MojoExecutionException("erg: " + where + ".sweeps: one sweep per model (got " + sweeps.size()
+                    + "); the other symbolic dims are bound with <dimensions>");
+        }
+        dev.erg.explore.SweepRange r = dev.erg.explore.SweepRange.parse("erg: " + where + ".sweeps", sweeps.get(0));
+        if (spec.dims().containsKey(r.name())) {
+            throw new MojoExecutionException("erg: " + where + ": <sweeps> and <dimensions> both bind '" + r.name()
+                    + "'; give one of the two");
+        }
+        return r;
+    }
+
     /** The model's input bindings: {@code <dimensions>}, {@code <shapes>} and {@code <values>}. */
     private static InputBindings bindings(String where, ModelConfig m) throws MojoExecutionException {
         Map<String, Long> dims = dimensions(where, m.getDimensions());
@@ -234,6 +263,11 @@ abstract class AbstractErgMojo extends AbstractMojo {
         for (String n : r.notes()) {
             getLog().warn(PREFIX + n);
         }
+        if (advise || (!o.failed() && !o.advice().isEmpty())) {
+            for (String line : o.adviceLines(advise ? -1 : RunOutcome.MESSAGE_CANDIDATES)) {
+                getLog().info(PREFIX + line);
+            }
+        }
     }
 
     /**
@@ -246,7 +280,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
             return;
         }
         if (o.failed()) {
-            throw new MojoFailureException(r.failureMessage());
+            throw new MojoFailureException(o.failureMessage());
         }
         int n = r.failures().size();
         getLog().warn(PREFIX + n + (n == 1 ? " limit does" : " limits do") + " not hold; " + reportOnlyHint);

@@ -18,6 +18,7 @@ import java.util.Map;
  *   &lt;shapes&gt;&lt;input&gt;1x576&lt;/input&gt;&lt;/shapes&gt;
  *   &lt;values&gt;&lt;sr&gt;16000&lt;/sr&gt;&lt;/values&gt;
  *   &lt;precision&gt;&lt;rule&gt;/backbone/*@Conv=w4a8&lt;/rule&gt;&lt;/precision&gt;
+ *   &lt;sweeps&gt;&lt;sweep&gt;seq=64..1024:64&lt;/sweep&gt;&lt;/sweeps&gt;
  * &lt;/model&gt;
  * </pre>
  */
@@ -41,6 +42,20 @@ public class ModelConfig {
      * the first rule that matches a node sets its deployed precision on every device.
      */
     private List<String> precision = new ArrayList<>();
+
+    /**
+     * A sweep of one symbolic dimension, {@code NAME=FROM..TO:STEP} or {@code NAME=FROM..TO*FACTOR},
+     * e.g. {@code <sweeps><sweep>seq=64..1024:64</sweep></sweeps>}; at most one per model.
+     */
+    private java.util.List<String> sweeps = new java.util.ArrayList<>();
+
+    public java.util.List<String> getSweeps() {
+        return sweeps;
+    }
+
+    public void setSweeps(java.util.List<String> sweeps) {
+        this.sweeps = sweeps;
+    }
 
     public ModelConfig() {
     }
