@@ -89,8 +89,9 @@ public final class Estimator {
             }
         }
         precision.noteUnusedRules(assumptions);
-        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>(2 * n));
-        Set<TensorDef> sramWeights = Collections.newSetFromMap(new IdentityHashMap<>(2 * n));
+        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+        Set<TensorDef> sramWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+        List<TensorDef> src = new ArrayList<>(4);
         long[] weightBytes = new long[n];
         List<MacJob> cellJobs = new ArrayList<>();
         List<NodeEstimate> cellEstimates = new ArrayList<>();
@@ -100,9 +101,9 @@ public final class Estimator {
                 continue;
             }
             est[i].priced = true;
-            List<TensorDef> src = new ArrayList<>(2);
+            src.clear();
             long wb = weights(nw.node(), src);
-            allWeights.addAll(src);
+            addAll(allWeights, src);
             est[i].weightBytes = wb;
             if (nw.kind() == Kind.MAC) {
                 EngineModel model = array != null ? array : vector;
@@ -136,7 +137,7 @@ public final class Estimator {
                 mapVector(est[i], nw, wb, s.fusedIn[i]);
             }
             weightBytes[i] = wb;
-            sramWeights.addAll(src);
+            addAll(sramWeights, src);
         }
         if (array != null && !cellJobs.isEmpty()) {
             array.settle(cellJobs, cellEstimates, pricing);
@@ -150,7 +151,7 @@ public final class Estimator {
             sramWeightBytes += s.storedBytes(t);
         }
         Placement.Result p = Placement.place(s, est, weightBytes, sramWeightBytes, device.sram(), assumptions);
-        Energy total = Energy.ZERO;
+        double[] sum = new double[9]; // the total energy, summed part by part as Energy.plus does
         double latency = 0;
         long dramPerFrame = 0;
         boolean reloaded = false;
@@ -159,11 +160,12 @@ public final class Estimator {
                 continue;
             }
             finish(est[i], works.get(i));
-            total = total.plus(est[i].energy);
+            Energy.add(sum, est[i].energy);
             latency += est[i].latencySeconds;
             dramPerFrame += est[i].dramReadBytes + est[i].dramWriteBytes;
             reloaded |= est[i].weightsReloaded;
         }
+        Energy total = Energy.of(sum);
         if (!w.complete()) {
             assumptions.add("nodes without a rule are not priced: " + w.unmodelled().keySet()
                     + (w.unresolved().isEmpty() ? "" : ", and nodes downstream of them: " + w.unresolved().keySet()));
@@ -174,6 +176,12 @@ public final class Estimator {
         List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? sramWeightBytes : 0, totalWeights, p.activationPeak, dramPerFrame, uniq, reloaded);
+    }
+
+    private static void addAll(Set<TensorDef> set, List<TensorDef> src) {
+        for (int q = 0, m = src.size(); q < m; q++) {
+            set.add(src.get(q));
+        }
     }
 
     /** Deployed bytes of the constants a node reads (not its parameters); their stored tensors go to {@code src}. */
