@@ -39,6 +39,14 @@ public final class Estimator {
     private final EngineModel array;
     private final VectorUnit vector;
     private Schedule s;
+    // The state of one run's mapping pass (see map): kept in fields so that the per-node body is its own
+    // small method, which the JIT compiles after a few hundred nodes rather than interpreting a long loop.
+    private final Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+    private final Set<TensorDef> sramWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+    private final List<TensorDef> src = new ArrayList<>(4);
+    private long[] weightBytes;
+    private final List<MacJob> cellJobs = new ArrayList<>();
+    private final List<NodeEstimate> cellEstimates = new ArrayList<>();
 
     private Estimator(DeviceProfile device, PrecisionOverrides overrides) {
         this.device = device;
@@ -89,55 +97,9 @@ public final class Estimator {
             }
         }
         precision.noteUnusedRules(assumptions);
-        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
-        Set<TensorDef> sramWeights = Collections.newSetFromMap(new IdentityHashMap<>());
-        List<TensorDef> src = new ArrayList<>(4);
-        long[] weightBytes = new long[n];
-        List<MacJob> cellJobs = new ArrayList<>();
-        List<NodeEstimate> cellEstimates = new ArrayList<>();
+        weightBytes = new long[n];
         for (int i = 0; i < n; i++) {
-            NodeWork nw = works.get(i);
-            if (!Schedule.runs(nw)) {
-                continue;
-            }
-            est[i].priced = true;
-            src.clear();
-            long wb = weights(nw.node(), src);
-            addAll(allWeights, src);
-            est[i].weightBytes = wb;
-            if (nw.kind() == Kind.MAC) {
-                EngineModel model = array != null ? array : vector;
-                MacJob job = job(nw, est[i], model.engine());
-                if (nw.gemmGroups() == 0 || model == vector) {
-                    // No matrix view (a node that carries subgraphs) or no array: one MAC per unit per cycle.
-                    Engine flatEngine = model instanceof DigitalArray || vectorEngine == null ? model.engine()
-                            : vectorEngine;
-                    model = new VectorUnit(flatEngine);
-                    if (array == null) {
-                        assumptions.add("the profile has no MAC array: MACs run on the vector unit without reuse");
-                    } else if (flatEngine == vectorEngine) {
-                        assumptions.add("'" + nw.name() + "' has no matrix view for '" + arrayEngine.id()
-                                + "': its MACs run on the vector unit without reuse");
-                    }
-                }
-                model.map(job, est[i]);
-                est[i].macModel = model;
-                est[i].engine = model.engine().id();
-                est[i].job = job;
-                if (vector != null && nw.vectorOps() > 0) {
-                    est[i].computeCycles = Math.max(est[i].computeCycles, vector.cycles(nw.vectorOps()));
-                }
-                est[i].overheadSeconds = model.engine().layerOverheadCycles() / device.clockHz();
-                if (model.holdsWeights() && nw.gemmGroups() > 0) {
-                    cellJobs.add(job);
-                    cellEstimates.add(est[i]);
-                    continue; // its weights live in the engine's cells, not in SRAM
-                }
-            } else {
-                mapVector(est[i], nw, wb, s.fusedIn[i]);
-            }
-            weightBytes[i] = wb;
-            addAll(sramWeights, src);
+            map(works.get(i), est[i], i);
         }
         if (array != null && !cellJobs.isEmpty()) {
             array.settle(cellJobs, cellEstimates, pricing);
@@ -176,6 +138,51 @@ public final class Estimator {
         List<String> uniq = new ArrayList<>(new LinkedHashSet<>(assumptions));
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? sramWeightBytes : 0, totalWeights, p.activationPeak, dramPerFrame, uniq, reloaded);
+    }
+
+    /** Maps node {@code i} onto its engine: weights, folds and cycles, operand traffic. */
+    private void map(NodeWork nw, NodeEstimate e, int i) {
+        if (!Schedule.runs(nw)) {
+            return;
+        }
+        e.priced = true;
+        src.clear();
+        long wb = weights(nw.node(), src);
+        addAll(allWeights, src);
+        e.weightBytes = wb;
+        if (nw.kind() == Kind.MAC) {
+            EngineModel model = array != null ? array : vector;
+            MacJob job = job(nw, e, model.engine());
+            if (nw.gemmGroups() == 0 || model == vector) {
+                // No matrix view (a node that carries subgraphs) or no array: one MAC per unit per cycle.
+                Engine flatEngine = model instanceof DigitalArray || vectorEngine == null ? model.engine()
+                        : vectorEngine;
+                model = new VectorUnit(flatEngine);
+                if (array == null) {
+                    assumptions.add("the profile has no MAC array: MACs run on the vector unit without reuse");
+                } else if (flatEngine == vectorEngine) {
+                    assumptions.add("'" + nw.name() + "' has no matrix view for '" + arrayEngine.id()
+                            + "': its MACs run on the vector unit without reuse");
+                }
+            }
+            model.map(job, e);
+            e.macModel = model;
+            e.engine = model.engine().id();
+            e.job = job;
+            if (vector != null && nw.vectorOps() > 0) {
+                e.computeCycles = Math.max(e.computeCycles, vector.cycles(nw.vectorOps()));
+            }
+            e.overheadSeconds = model.engine().layerOverheadCycles() / device.clockHz();
+            if (model.holdsWeights() && nw.gemmGroups() > 0) {
+                cellJobs.add(job);
+                cellEstimates.add(e);
+                return; // its weights live in the engine's cells, not in SRAM
+            }
+        } else {
+            mapVector(e, nw, wb, s.fusedIn[i]);
+        }
+        weightBytes[i] = wb;
+        addAll(sramWeights, src);
     }
 
     private static void addAll(Set<TensorDef> set, List<TensorDef> src) {
