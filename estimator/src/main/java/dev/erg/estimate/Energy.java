@@ -150,6 +150,24 @@ public final class Energy {
         return dynamic() + leakage;
     }
 
+    /** Adds {@code e} into {@code sum} part by part, in the order of {@link #of(double[])}: as {@link #plus} would. */
+    static void add(double[] sum, Energy e) {
+        sum[0] += e.compute;
+        sum[1] += e.registers;
+        sum[2] += e.sram;
+        sum[3] += e.dram;
+        sum[4] += e.leakage;
+        sum[5] += e.conversion;
+        sum[6] += e.cellWrites;
+        sum[7] += e.rowDrive;
+        sum[8] += e.accumulation;
+    }
+
+    /** The energy whose parts {@link #add} summed. */
+    static Energy of(double[] sum) {
+        return new Energy(sum[0], sum[1], sum[2], sum[3], sum[4], sum[5], sum[6], sum[7], sum[8]);
+    }
+
     public Energy plus(Energy o) {
         return new Energy(compute + o.compute, registers + o.registers, sram + o.sram, dram + o.dram,
                 leakage + o.leakage, conversion + o.conversion, cellWrites + o.cellWrites, rowDrive + o.rowDrive,

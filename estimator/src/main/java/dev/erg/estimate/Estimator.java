@@ -39,6 +39,14 @@ public final class Estimator {
     private final EngineModel array;
     private final VectorUnit vector;
     private Schedule s;
+    // The state of one run's mapping pass (see map): kept in fields so that the per-node body is its own
+    // small method, which the JIT compiles after a few hundred nodes rather than interpreting a long loop.
+    private final Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+    private final Set<TensorDef> sramWeights = Collections.newSetFromMap(new IdentityHashMap<>());
+    private final List<TensorDef> src = new ArrayList<>(4);
+    private long[] weightBytes;
+    private final List<MacJob> cellJobs = new ArrayList<>();
+    private final List<NodeEstimate> cellEstimates = new ArrayList<>();
 
     private Estimator(DeviceProfile device, PrecisionOverrides overrides) {
         this.device = device;
@@ -89,62 +97,9 @@ public final class Estimator {
             }
         }
         precision.noteUnusedRules(assumptions);
-        Set<TensorDef> allWeights = Collections.newSetFromMap(new IdentityHashMap<>(2 * n));
-        Set<TensorDef> sramWeights = Collections.newSetFromMap(new IdentityHashMap<>(2 * n));
-        long[] weightBytes = new long[n];
-        List<MacJob> cellJobs = new ArrayList<>();
-        List<NodeEstimate> cellEstimates = new ArrayList<>();
+        weightBytes = new long[n];
         for (int i = 0; i < n; i++) {
-            NodeWork nw = works.get(i);
-            if (!Schedule.runs(nw)) {
-                continue;
-            }
-            est[i].priced = true;
-            List<TensorDef> src = new ArrayList<>(2);
-            long wb = weights(nw.node(), src);
-            allWeights.addAll(src);
-            est[i].weightBytes = wb;
-            if (nw.kind() == Kind.MAC) {
-                EngineModel model = array != null ? array : vector;
-                MacJob job = job(nw, est[i], model.engine());
-                if ((nw.gemmGroups() == 0 || model == vector) && !(model instanceof CpuCores)) {
-                    // No matrix view (a node that carries subgraphs) or no array: one MAC per unit per cycle.
-                    Engine flatEngine = model instanceof DigitalArray || vectorEngine == null ? model.engine()
-                            : vectorEngine;
-                    model = new VectorUnit(flatEngine);
-                    if (array == null) {
-                        assumptions.add("the profile has no MAC array: MACs run on the vector unit without reuse");
-                    } else if (flatEngine == vectorEngine) {
-                        assumptions.add("'" + nw.name() + "' has no matrix view for '" + arrayEngine.id()
-                                + "': its MACs run on the vector unit without reuse");
-                    }
-                }
-                model.map(job, est[i]);
-                if (model instanceof CpuCores) {
-                    CpuCores cpu = (CpuCores) model;
-                    note(cpu.derivedNote(est[i].precision, false));
-                    if (nw.vectorOps() > 0) { // the same cores run the node's vector work after its MACs
-                        est[i].computeCycles += cpu.opCycles(nw.vectorOps(), est[i].precision);
-                        note(cpu.derivedNote(est[i].precision, true));
-                    }
-                }
-                est[i].macModel = model;
-                est[i].engine = model.engine().id();
-                est[i].job = job;
-                if (vector != null && nw.vectorOps() > 0) {
-                    est[i].computeCycles = Math.max(est[i].computeCycles, vector.cycles(nw.vectorOps()));
-                }
-                est[i].overheadSeconds = model.engine().layerOverheadCycles() / device.clockHz();
-                if (model.holdsWeights() && nw.gemmGroups() > 0) {
-                    cellJobs.add(job);
-                    cellEstimates.add(est[i]);
-                    continue; // its weights live in the engine's cells, not in SRAM
-                }
-            } else {
-                mapVector(est[i], nw, wb, s.fusedIn[i]);
-            }
-            weightBytes[i] = wb;
-            sramWeights.addAll(src);
+            map(works.get(i), est[i], i);
         }
         if (array != null && !cellJobs.isEmpty()) {
             array.settle(cellJobs, cellEstimates, pricing);
@@ -158,7 +113,7 @@ public final class Estimator {
             sramWeightBytes += s.storedBytes(t);
         }
         Placement.Result p = Placement.place(s, est, weightBytes, sramWeightBytes, device.sram(), assumptions);
-        Energy total = Energy.ZERO;
+        double[] sum = new double[9]; // the total energy, summed part by part as Energy.plus does
         double latency = 0;
         long dramPerFrame = 0;
         boolean reloaded = false;
@@ -167,11 +122,12 @@ public final class Estimator {
                 continue;
             }
             finish(est[i], works.get(i));
-            total = total.plus(est[i].energy);
+            Energy.add(sum, est[i].energy);
             latency += est[i].latencySeconds;
             dramPerFrame += est[i].dramReadBytes + est[i].dramWriteBytes;
             reloaded |= est[i].weightsReloaded;
         }
+        Energy total = Energy.of(sum);
         if (!w.complete()) {
             assumptions.add("nodes without a rule are not priced: " + w.unmodelled().keySet()
                     + (w.unresolved().isEmpty() ? "" : ", and nodes downstream of them: " + w.unresolved().keySet()));
@@ -185,6 +141,65 @@ public final class Estimator {
         }
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? sramWeightBytes : 0, totalWeights, p.activationPeak, dramPerFrame, uniq, reloaded);
+    }
+
+    /** Maps node {@code i} onto its engine: weights, folds and cycles, operand traffic. */
+    private void map(NodeWork nw, NodeEstimate e, int i) {
+        if (!Schedule.runs(nw)) {
+            return;
+        }
+        e.priced = true;
+        src.clear();
+        long wb = weights(nw.node(), src);
+        addAll(allWeights, src);
+        e.weightBytes = wb;
+        if (nw.kind() == Kind.MAC) {
+            EngineModel model = array != null ? array : vector;
+            MacJob job = job(nw, e, model.engine());
+            if ((nw.gemmGroups() == 0 || model == vector) && !(model instanceof CpuCores)) {
+                // No matrix view (a node that carries subgraphs) or no array: one MAC per unit per cycle.
+                Engine flatEngine = model instanceof DigitalArray || vectorEngine == null ? model.engine()
+                        : vectorEngine;
+                model = new VectorUnit(flatEngine);
+                if (array == null) {
+                    assumptions.add("the profile has no MAC array: MACs run on the vector unit without reuse");
+                } else if (flatEngine == vectorEngine) {
+                    assumptions.add("'" + nw.name() + "' has no matrix view for '" + arrayEngine.id()
+                            + "': its MACs run on the vector unit without reuse");
+                }
+            }
+            model.map(job, e);
+            if (model instanceof CpuCores) {
+                CpuCores cpu = (CpuCores) model;
+                note(cpu.derivedNote(e.precision, false));
+                if (nw.vectorOps() > 0) { // the same cores run the node's vector work after its MACs
+                    e.computeCycles += cpu.opCycles(nw.vectorOps(), e.precision);
+                    note(cpu.derivedNote(e.precision, true));
+                }
+            }
+            e.macModel = model;
+            e.engine = model.engine().id();
+            e.job = job;
+            if (vector != null && nw.vectorOps() > 0) {
+                e.computeCycles = Math.max(e.computeCycles, vector.cycles(nw.vectorOps()));
+            }
+            e.overheadSeconds = model.engine().layerOverheadCycles() / device.clockHz();
+            if (model.holdsWeights() && nw.gemmGroups() > 0) {
+                cellJobs.add(job);
+                cellEstimates.add(e);
+                return; // its weights live in the engine's cells, not in SRAM
+            }
+        } else {
+            mapVector(e, nw, wb, s.fusedIn[i]);
+        }
+        weightBytes[i] = wb;
+        addAll(sramWeights, src);
+    }
+
+    private static void addAll(Set<TensorDef> set, List<TensorDef> src) {
+        for (int q = 0, m = src.size(); q < m; q++) {
+            set.add(src.get(q));
+        }
     }
 
     /** Deployed bytes of the constants a node reads (not its parameters); their stored tensors go to {@code src}. */

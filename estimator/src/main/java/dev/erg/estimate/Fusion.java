@@ -24,31 +24,35 @@ final class Fusion {
      * activation input arrives fused (not read from SRAM), and a fused-through output is not written.
      */
     static void mark(Schedule s, NodeEstimate[] est) {
-        boolean[] fusedIn = s.fusedIn;
         for (int i = 0; i < s.size(); i++) {
-            NodeWork head = s.works.get(i);
-            if (head.kind() != Kind.MAC) {
-                continue;
+            if (s.works.get(i).kind() == Kind.MAC) {
+                markChain(s, est, i);
             }
-            Node cur = head.node();
-            while (true) {
-                Value out = cur.output(0);
-                if (out == null || out.isGraphOutput() || out.consumers().size() != 1) {
-                    break;
-                }
-                Node next = out.consumers().get(0);
-                int j = s.posOf(next);
-                if (j < 0 || next.isFolded() || !FUSABLE.contains(next.opType())
-                        || s.works.get(j).kind() != Kind.VECTOR || fusedIn[j]) {
-                    break;
-                }
-                if (next.input(0) != out && !(next.inputCount() > 1 && next.input(1) == out)) {
-                    break;
-                }
-                fusedIn[j] = true;
-                est[j].fusedInto = head.name();
-                cur = next;
+        }
+    }
+
+    /** Marks the followers of MAC node {@code i}, in a method of its own so that the JIT compiles it early. */
+    private static void markChain(Schedule s, NodeEstimate[] est, int i) {
+        boolean[] fusedIn = s.fusedIn;
+        NodeWork head = s.works.get(i);
+        Node cur = head.node();
+        while (true) {
+            Value out = cur.output(0);
+            if (out == null || out.isGraphOutput() || out.consumers().size() != 1) {
+                break;
             }
+            Node next = out.consumers().get(0);
+            int j = s.posOf(next);
+            if (j < 0 || next.isFolded() || !FUSABLE.contains(next.opType())
+                    || s.works.get(j).kind() != Kind.VECTOR || fusedIn[j]) {
+                break;
+            }
+            if (next.input(0) != out && !(next.inputCount() > 1 && next.input(1) == out)) {
+                break;
+            }
+            fusedIn[j] = true;
+            est[j].fusedInto = head.name();
+            cur = next;
         }
     }
 

@@ -121,17 +121,98 @@ final class Placement {
 
     static Result place(Schedule s, NodeEstimate[] est, long[] weightBytes, long totalWeights, Memory sram,
                         List<String> assumptions) {
-        List<NodeWork> works = s.works;
-        boolean[] fusedIn = s.fusedIn;
-        int n = works.size();
-        BufferTable bufOf = new BufferTable(s, n);
-        List<Buffer> buffers = new ArrayList<>();
-        for (int i = 0; i < n; i++) {
+        return new Sweep(s, est, weightBytes, totalWeights, sram).run(assumptions);
+    }
+
+    /**
+     * One placement: the buffers' live ranges, then a sweep of the schedule. The state lives in fields so
+     * that each per-node step is its own small method, compiled by the JIT after a few hundred nodes
+     * rather than interpreted through a long loop.
+     */
+    private static final class Sweep {
+        final Schedule s;
+        final NodeEstimate[] est;
+        final long[] weightBytes;
+        final long totalWeights;
+        final Memory sram;
+        final List<NodeWork> works;
+        final boolean[] fusedIn;
+        final int n;
+        final BufferTable bufOf;
+        final List<Buffer> buffers = new ArrayList<>();
+        final Result p = new Result();
+        long[] live;
+        long cap;
+        long[] adjust;
+        long adj;
+        int next;
+        final List<Buffer> active = new ArrayList<>();
+        final List<Buffer> touched = new ArrayList<>(8);
+
+        Sweep(Schedule s, NodeEstimate[] est, long[] weightBytes, long totalWeights, Memory sram) {
+            this.s = s;
+            this.est = est;
+            this.weightBytes = weightBytes;
+            this.totalWeights = totalWeights;
+            this.sram = sram;
+            this.works = s.works;
+            this.fusedIn = s.fusedIn;
+            this.n = works.size();
+            this.bufOf = new BufferTable(s, n);
+        }
+
+        Result run(List<String> assumptions) {
+            for (int i = 0; i < n; i++) {
+                buffersOf(i);
+            }
+            live = new long[n + 1];
+            for (Buffer b : buffers) {
+                if (b.start < 0) {
+                    continue;
+                }
+                live[b.start] += b.bytes;
+                live[b.end + 1] -= b.bytes;
+            }
+            long peak = 0;
+            long run = 0;
+            for (int i = 0; i < n; i++) {
+                run += live[i];
+                live[i] = run;
+                peak = Math.max(peak, run);
+            }
+            p.activationPeak = peak;
+            cap = sram.capacityBytes();
+            p.resident = totalWeights + peak <= cap;
+            if (!p.resident) {
+                assumptions.add("weights (" + totalWeights + " B) and peak activations (" + peak + " B) exceed the SRAM ("
+                        + cap + " B): each layer streams its weights from DRAM every frame");
+            }
+            // Sweep the schedule with the live set; evict idle buffers (furthest next use first) on overflow.
+            adjust = new long[n + 2];
+            adj = 0;
+            // Buffers are created in the order of their first step, so they are nearly always sorted by start
+            // already. Live buffers are appended as they start; ended ones are dropped when the list is scanned.
+            buffers.removeIf(b -> b.start < 0);
+            for (int q = 1; q < buffers.size(); q++) {
+                if (buffers.get(q - 1).start > buffers.get(q).start) {
+                    buffers.sort((x, y) -> Integer.compare(x.start, y.start));
+                    break;
+                }
+            }
+            next = 0;
+            for (int i = 0; i < n; i++) {
+                step(i);
+            }
+            return p;
+        }
+
+        /** The buffers node {@code i} reads and writes: their live ranges and uses. */
+        private void buffersOf(int i) {
             NodeWork nw = works.get(i);
             Node node = nw.node();
             boolean view = nw.kind() == Kind.VIEW;
             if (!Schedule.runs(nw) && !view) {
-                continue;
+                return;
             }
             for (int k = 0; k < node.inputCount(); k++) {
                 Value v = node.input(k);
@@ -174,52 +255,16 @@ final class Placement {
                 buffers.add(b);
             }
         }
-        long[] live = new long[n + 1];
-        for (Buffer b : buffers) {
-            if (b.start < 0) {
-                continue;
-            }
-            live[b.start] += b.bytes;
-            live[b.end + 1] -= b.bytes;
-        }
-        long peak = 0;
-        long run = 0;
-        for (int i = 0; i < n; i++) {
-            run += live[i];
-            live[i] = run;
-            peak = Math.max(peak, run);
-        }
-        Result p = new Result();
-        p.activationPeak = peak;
-        long cap = sram.capacityBytes();
-        p.resident = totalWeights + peak <= cap;
-        if (!p.resident) {
-            assumptions.add("weights (" + totalWeights + " B) and peak activations (" + peak + " B) exceed the SRAM ("
-                    + cap + " B): each layer streams its weights from DRAM every frame");
-        }
-        // Sweep the schedule with the live set; evict idle buffers (furthest next use first) on overflow.
-        long[] adjust = new long[n + 2];
-        long adj = 0;
-        // Buffers are created in the order of their first step, so they are nearly always sorted by start
-        // already. Live buffers are appended as they start; ended ones are dropped when the list is scanned.
-        buffers.removeIf(b -> b.start < 0);
-        for (int q = 1; q < buffers.size(); q++) {
-            if (buffers.get(q - 1).start > buffers.get(q).start) {
-                buffers.sort((a, b) -> Integer.compare(a.start, b.start));
-                break;
-            }
-        }
-        int next = 0;
-        List<Buffer> active = new ArrayList<>();
-        List<Buffer> touched = new ArrayList<>(8);
-        for (int i = 0; i < n; i++) {
+
+        /** Step {@code i} of the sweep: the node's working set, evictions on overflow, DRAM traffic. */
+        private void step(int i) {
             adj += adjust[i];
             while (next < buffers.size() && buffers.get(next).start <= i) {
                 active.add(buffers.get(next++));
             }
             NodeWork nw = works.get(i);
             if (!est[i].priced) {
-                continue;
+                return;
             }
             NodeEstimate e = est[i];
             Node node = nw.node();
@@ -248,38 +293,11 @@ final class Placement {
                 tileNode(e, node, touched, bufOf, weightBytes[i], cap, i, adjust);
             } else {
                 if (need > cap) {
-                    List<Buffer> idle = new ArrayList<>();
-                    int kept = 0;
-                    for (int q = 0; q < active.size(); q++) {
-                        Buffer b = active.get(q);
-                        if (b.end < i) {
-                            continue; // ended: drop it from the live list
-                        }
-                        active.set(kept++, b);
-                        if (!Schedule.containsSame(touched, b) && b.evictedUntil <= i && b.nextUseAfter(i) > 0) {
-                            idle.add(b);
-                        }
-                    }
-                    active.subList(kept, active.size()).clear();
-                    final int step = i;
-                    idle.sort((a, b) -> Integer.compare(b.nextUseAfter(step), a.nextUseAfter(step)));
-                    for (Buffer b : idle) {
-                        if (need <= cap) {
-                            break;
-                        }
-                        int j = b.nextUseAfter(i);
-                        if (!b.inDram) {
-                            e.dramWriteBytes += b.bytes;
-                            b.inDram = true;
-                        }
-                        b.evictedUntil = j;
-                        adjust[j] += b.bytes;
-                        adj -= b.bytes;
-                        need -= b.bytes;
-                    }
+                    evict(e, i, need);
                 }
                 // Reads of inputs that sit in DRAM: graph inputs at their first use, evicted buffers coming back.
-                for (Buffer b : touched) {
+                for (int q = 0; q < touched.size(); q++) {
+                    Buffer b = touched.get(q);
                     if (b.start == i && !b.value.isGraphInput()) {
                         continue;
                     }
@@ -300,7 +318,39 @@ final class Placement {
                 }
             }
         }
-        return p;
+
+        /** Evicts idle buffers, the one used furthest in the future first, until step {@code i} fits. */
+        private void evict(NodeEstimate e, int i, long need) {
+            List<Buffer> idle = new ArrayList<>();
+            int kept = 0;
+            for (int q = 0; q < active.size(); q++) {
+                Buffer b = active.get(q);
+                if (b.end < i) {
+                    continue; // ended: drop it from the live list
+                }
+                active.set(kept++, b);
+                if (!Schedule.containsSame(touched, b) && b.evictedUntil <= i && b.nextUseAfter(i) > 0) {
+                    idle.add(b);
+                }
+            }
+            active.subList(kept, active.size()).clear();
+            final int step = i;
+            idle.sort((a, b) -> Integer.compare(b.nextUseAfter(step), a.nextUseAfter(step)));
+            for (Buffer b : idle) {
+                if (need <= cap) {
+                    break;
+                }
+                int j = b.nextUseAfter(i);
+                if (!b.inDram) {
+                    e.dramWriteBytes += b.bytes;
+                    b.inDram = true;
+                }
+                b.evictedUntil = j;
+                adjust[j] += b.bytes;
+                adj -= b.bytes;
+                need -= b.bytes;
+            }
+        }
     }
 
     /**

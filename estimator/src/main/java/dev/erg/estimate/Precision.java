@@ -39,8 +39,8 @@ final class Precision {
         boolean mac = nw.kind() == Kind.MAC;
         String wt = nw.weightPrecision();
         String at = nw.activationPrecision() != null ? nw.activationPrecision() : nw.precision();
-        int wBits = wt == null ? 0 : Precisions.bits(wt);
-        int aBits = Precisions.bits(at);
+        int wBits = wt == null ? 0 : bits(wt);
+        int aBits = bits(at);
         Origin wo = wt == null ? null : Origin.MODEL;
         Origin ao = Origin.MODEL;
         String wType = wt;
@@ -63,7 +63,7 @@ final class Precision {
             aType = deploy;
             ao = Origin.PROFILE;
         }
-        PrecisionOverrides.Rule r = overrides.match(nw.name(), nw.opType());
+        PrecisionOverrides.Rule r = overrides.isEmpty() ? null : overrides.match(nw.name(), nw.opType());
         if (r != null) {
             used.add(r);
             if (r.weightBits() > 0 && wt != null && mac) {
@@ -79,7 +79,7 @@ final class Precision {
                 s.outputBits[i] = aBits;
             }
         }
-        e.deployed = new DeployedPrecision(wBits, aBits, wType, aType, wo, ao);
+        e.deployed = deployed(wBits, aBits, wType, aType, wo, ao);
         e.weightBitsSet = weightSet;
         boolean ints = isInt(aType) && (wType == null || isInt(wType));
         String label = defaultLabel(nw.precision());
@@ -102,6 +102,31 @@ final class Precision {
                 s.deployWeight(recurrent, wBits); // the recurrent weights of LSTM, GRU and RNN
             }
         }
+    }
+
+    /** {@link Precisions#bits}, remembered for the last label: nodes mostly repeat their neighbour's. */
+    private int bits(String label) {
+        if (label != lastLabel) {
+            lastBits = Precisions.bits(label);
+            lastLabel = label;
+        }
+        return lastBits;
+    }
+
+    private String lastLabel;
+    private int lastBits;
+    private DeployedPrecision lastDeployed;
+
+    /** The deployed precision, shared with the previous node when it is the same (the record is immutable). */
+    private DeployedPrecision deployed(int wBits, int aBits, String wType, String aType, Origin wo, Origin ao) {
+        DeployedPrecision d = lastDeployed;
+        if (d == null || d.weightBits() != wBits || d.activationBits() != aBits || d.weightOrigin() != wo
+                || d.activationOrigin() != ao || !java.util.Objects.equals(d.weightType(), wType)
+                || !java.util.Objects.equals(d.activationType(), aType)) {
+            d = new DeployedPrecision(wBits, aBits, wType, aType, wo, ao);
+            lastDeployed = d;
+        }
+        return d;
     }
 
     private static boolean isInt(String label) {

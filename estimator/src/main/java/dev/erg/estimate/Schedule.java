@@ -18,6 +18,8 @@ import java.util.Map;
  */
 final class Schedule {
     final List<NodeWork> works;
+    /** The nodes by position, for {@link #posOf} without going through the work list. */
+    private final Node[] nodes;
     private final long[] paramMask;
     private final WorkloadRules rules;
     /** Per node: its first activation input arrives fused (set by {@link Fusion}). */
@@ -33,9 +35,20 @@ final class Schedule {
         this.works = works;
         this.rules = rules;
         this.deployBits = deployBits;
-        this.paramMask = new long[works.size()];
-        for (int i = 0; i < works.size(); i++) {
-            paramMask[i] = rules.parameterMask(works.get(i).opType());
+        int n = works.size();
+        this.paramMask = new long[n];
+        this.nodes = new Node[n];
+        String lastOp = null;
+        long lastMask = 0;
+        for (int i = 0; i < n; i++) {
+            NodeWork w = works.get(i);
+            nodes[i] = w.node();
+            String op = w.opType();
+            if (op != lastOp) { // the same operator type is usually one String: look the rule up once per run of it
+                lastMask = rules.parameterMask(op);
+                lastOp = op;
+            }
+            paramMask[i] = lastMask;
         }
         this.fusedIn = new boolean[works.size()];
         this.outputBits = new int[works.size()];
@@ -54,7 +67,7 @@ final class Schedule {
     /** The position of {@code n} in this run's nodes, or -1 when it belongs to another graph (a subgraph). */
     int posOf(Node n) {
         int i = n.index();
-        return i >= 0 && i < works.size() && works.get(i).node() == n ? i : -1;
+        return i >= 0 && i < nodes.length && nodes[i] == n ? i : -1;
     }
 
     static boolean runs(NodeWork w) {
@@ -119,8 +132,8 @@ final class Schedule {
     }
 
     static <T> boolean containsSame(List<T> list, T x) {
-        for (T t : list) {
-            if (t == x) {
+        for (int i = 0, n = list.size(); i < n; i++) {
+            if (list.get(i) == x) {
                 return true;
             }
         }

@@ -258,23 +258,9 @@ final class TensorReader {
         if (loc == null || loc.isEmpty()) {
             throw w.bad(what + " says its data is external but gives no location");
         }
-        if (loc.indexOf('\0') >= 0) {
-            throw w.bad(what + " has an external data location with a NUL character");
-        }
-        String norm = loc.replace('\\', '/');
-        if (norm.startsWith("/") || (norm.length() >= 2 && norm.charAt(1) == ':' && isAsciiLetter(norm.charAt(0))) || norm.startsWith("~")) {
-            throw w.bad(what + " has external data at the absolute location '" + loc
-                    + "'; external data must be a relative path inside the model's folder");
-        }
-        for (String part : norm.split("/")) {
-            if (part.equals("..")) {
-                throw w.bad(what + " has external data at '" + loc
-                        + "', which climbs out of the model's folder; it must stay inside it");
-            }
-        }
-        Path resolved = w.folder.resolve(norm).normalize();
-        if (!resolved.startsWith(w.folder)) {
-            throw w.bad(what + " has external data at '" + loc + "', outside the model's folder");
+        if (!loc.equals(lastSafeLocation)) {
+            checkLocation(what, loc);
+            lastSafeLocation = loc; // the next tensor in the same file skips the path work
         }
         for (String key : new String[] {"offset", "length"}) {
             String v = external.get(key);
@@ -295,6 +281,31 @@ final class TensorReader {
         }
         return loc;
     }
+
+    /** The location stays inside the model's folder: relative, never climbing out. */
+    private void checkLocation(String what, String loc) {
+        if (loc.indexOf('\0') >= 0) {
+            throw w.bad(what + " has an external data location with a NUL character");
+        }
+        String norm = loc.replace('\\', '/');
+        if (norm.startsWith("/") || (norm.length() >= 2 && norm.charAt(1) == ':' && isAsciiLetter(norm.charAt(0))) || norm.startsWith("~")) {
+            throw w.bad(what + " has external data at the absolute location '" + loc
+                    + "'; external data must be a relative path inside the model's folder");
+        }
+        for (String part : norm.split("/")) {
+            if (part.equals("..")) {
+                throw w.bad(what + " has external data at '" + loc
+                        + "', which climbs out of the model's folder; it must stay inside it");
+            }
+        }
+        Path resolved = w.folder.resolve(norm).normalize();
+        if (!resolved.startsWith(w.folder)) {
+            throw w.bad(what + " has external data at '" + loc + "', outside the model's folder");
+        }
+    }
+
+    /** The last external location that passed {@link #checkLocation}: tensors of one file share it. */
+    private String lastSafeLocation;
 
     static boolean isAsciiLetter(char ch) {
         return (ch >= 'A' && ch <= 'Z') || (ch >= 'a' && ch <= 'z');

@@ -49,16 +49,7 @@ public final class WorkloadCounter {
                 throw overflow(g, "the model's total MACs or vector ops overflow 64 bits at node " + n.label());
             }
             if (w.kind() == Kind.MAC) {
-                WorkloadRules.Entry e = rules.get(n.opType());
-                if (e == null) {
-                    continue;
-                }
-                for (int i = 1; i < n.inputCount(); i++) {
-                    Value v = n.input(i);
-                    if (v != null && v.isConstant() && !e.isParam(i)) {
-                        macWeightConstants.addAll(v.sources());
-                    }
-                }
+                macWeights(n, macWeightConstants);
             }
         }
         long weights = 0;
@@ -87,11 +78,28 @@ public final class WorkloadCounter {
         return new ModelWorkload(g, works, macs, vector, weights, peak, unmodelled, unresolved);
     }
 
+    /** Adds the stored tensors behind the weights of MAC node {@code n} (its constant inputs that are no parameters). */
+    private void macWeights(Node n, Set<TensorDef> out) {
+        WorkloadRules.Entry e = rules.get(n.opType());
+        if (e == null) {
+            return;
+        }
+        for (int i = 1; i < n.inputCount(); i++) {
+            Value v = n.input(i);
+            if (v != null && v.isConstant() && !e.isParam(i)) {
+                out.addAll(v.sources());
+            }
+        }
+    }
+
     /** The initializers of every subgraph that runs as part of a node of {@code g}, nested ones too. */
     private static List<TensorDef> subgraphInitializers(Graph g) {
         List<TensorDef> out = new ArrayList<>();
-        for (Node n : g.nodes()) {
-            for (Graph sub : n.subgraphs()) {
+        List<Node> nodes = g.nodes();
+        for (int i = 0, n = nodes.size(); i < n; i++) {
+            List<Graph> subs = nodes.get(i).subgraphs();
+            for (int k = 0; k < subs.size(); k++) { // an index, not an iterator: most nodes have none
+                Graph sub = subs.get(k);
                 out.addAll(sub.initializers());
                 out.addAll(subgraphInitializers(sub));
             }
@@ -333,8 +341,9 @@ public final class WorkloadCounter {
                 b[1] = step;
             }
         }
-        for (Value v : n.implicitInputs()) {
-            long[] b = bufferOf.get(v);
+        List<Value> implicit = n.implicitInputs();
+        for (int k = 0; k < implicit.size(); k++) {
+            long[] b = bufferOf.get(implicit.get(k));
             if (b != null && b[1] < step) {
                 b[1] = step;
             }
