@@ -1,5 +1,22 @@
 package dev.erg.device;
 
+import static dev.erg.device.SchemaWords.andList;
+import static dev.erg.device.SchemaWords.article;
+import static dev.erg.device.SchemaWords.defName;
+import static dev.erg.device.SchemaWords.enumText;
+import static dev.erg.device.SchemaWords.isEngine;
+import static dev.erg.device.SchemaWords.join;
+import static dev.erg.device.SchemaWords.lastKey;
+import static dev.erg.device.SchemaWords.orList;
+import static dev.erg.device.SchemaWords.orText;
+import static dev.erg.device.SchemaWords.path;
+import static dev.erg.device.SchemaWords.range;
+import static dev.erg.device.SchemaWords.schemaAt;
+import static dev.erg.device.SchemaWords.siblingsTake;
+import static dev.erg.device.SchemaWords.stem;
+import static dev.erg.device.SchemaWords.text;
+import static dev.erg.device.SchemaWords.unitHint;
+
 import static dev.erg.device.ProfileTree.clip;
 
 import com.fasterxml.jackson.core.JsonToken;
@@ -49,50 +66,9 @@ final class ProfileSchema {
         }
     }
 
-    private static final class Holder {
-        static final JsonNode JSON;
-        static final JsonSchema SCHEMA;
-
-        static {
-            quietLogging();
-            try (InputStream in = ProfileSchema.class.getClassLoader().getResourceAsStream(RESOURCE)) {
-                if (in == null) {
-                    throw new IllegalStateException("the profile schema " + RESOURCE + " is not packaged");
-                }
-                JSON = new ObjectMapper().readTree(in);
-            } catch (IOException e) {
-                throw new UncheckedIOException(e);
-            }
-            SCHEMA = JsonSchemaFactory.getInstance(SpecVersion.VersionFlag.V202012).getSchema(JSON);
-        }
-    }
-
-    /**
-     * The validator logs through SLF4J. When no logging provider is on the class path (the CLI), SLF4J
-     * falls back to no logging but first warns on stderr; select that fallback explicitly instead, so a
-     * command's output stays its own. A host with a provider (Maven, an application) is left alone.
-     */
-    private static void quietLogging() {
-        if (System.getProperty("slf4j.provider") != null) {
-            return;
-        }
-        try {
-            Class<?> spi = Class.forName("org.slf4j.spi.SLF4JServiceProvider");
-            if (java.util.ServiceLoader.load(spi, spi.getClassLoader()).findFirst().isPresent()) {
-                return;
-            }
-        } catch (ClassNotFoundException | java.util.ServiceConfigurationError e) {
-            return;
-        }
-        System.setProperty("slf4j.provider", "org.slf4j.helpers.NOP_FallbackServiceProvider");
-        if (System.getProperty("slf4j.internal.verbosity") == null) {
-            System.setProperty("slf4j.internal.verbosity", "WARN");
-        }
-    }
-
     /** The schema as JSON (for tests and hints). */
     static JsonNode schemaJson() {
-        return Holder.JSON;
+        return SchemaSource.JSON;
     }
 
     private final String label;
@@ -111,7 +87,7 @@ final class ProfileSchema {
     static List<Fault> check(String label, Node root) {
         ProfileSchema s = new ProfileSchema(label);
         JsonNode doc = s.convert(root, "");
-        Set<ValidationMessage> messages = Holder.SCHEMA.validate(doc);
+        Set<ValidationMessage> messages = SchemaSource.SCHEMA.validate(doc);
         s.map(messages);
         return s.sorted();
     }
@@ -242,13 +218,13 @@ final class ProfileSchema {
             case "const":
                 if (path.equals("deploy-precision")) {
                     add(line, path, "unknown precision label \"" + clip(n.text) + "\" (known: "
-                            + enumText(Holder.JSON.at("/properties/deploy-precision/anyOf/0/enum"))
+                            + enumText(SchemaSource.JSON.at("/properties/deploy-precision/anyOf/0/enum"))
                             + ", int1 to int64, uint1 to uint64)");
                 } else if (type.equals("enum") && where.contains("/memory/allOf/0/then")) {
                     Node item = nodes.get(path.substring(0, path.lastIndexOf('.')));
                     add(item.line, join(path.substring(0, path.lastIndexOf('.')), "level"), "missing (the id \""
                             + clip(n.text) + "\" names no level; add level: "
-                            + orText(Holder.JSON.at("/$defs/memory/properties/level/enum")) + ")");
+                            + orText(SchemaSource.JSON.at("/$defs/memory/properties/level/enum")) + ")");
                 } else if (type.equals("enum")) {
                     add(line, path, "unknown " + key + " \"" + clip(n.text) + "\" (known: "
                             + enumText(schemaAt(where)) + ")");
@@ -326,23 +302,6 @@ final class ProfileSchema {
         }
     }
 
-    private static String range(String type, String bound, Node n) {
-        String got = n == null ? "" : " (got " + clip(n.text) + ")";
-        switch (type) {
-            case "minimum":
-                if (bound.equals("0")) {
-                    return "must not be negative" + got;
-                }
-                return (bound.equals("1") ? "must be greater than 0" : "must be at least " + bound) + got;
-            case "exclusiveMinimum":
-                return "must be greater than " + bound + got;
-            case "maximum":
-                return "must be at most " + bound + got;
-            default:
-                return "must be less than " + bound + got;
-        }
-    }
-
     /** A key the object's definition does not take: a unit hint, "not used here", or the keys it takes. */
     private void unknownKey(String path, String key, String where) {
         Entry e = entries.get(join(path, key));
@@ -371,65 +330,6 @@ final class ProfileSchema {
             return;
         }
         add(line, p, "unknown key (known: " + String.join(", ", known) + ")");
-    }
-
-    /** The keys to write for a key written without a unit or with a wrong one: known keys of the same stem. */
-    private static List<String> unitHint(String key, List<String> known) {
-        String stem = stem(key, known);
-        List<String> out = new ArrayList<>();
-        if (stem.isEmpty()) {
-            return out;
-        }
-        for (String k : known) {
-            if (k.startsWith(stem + "-")) {
-                out.add(k);
-            }
-        }
-        return out;
-    }
-
-    /** The longest leading part of {@code key}, cut at a '-', that starts some known key followed by '-'. */
-    private static String stem(String key, List<String> known) {
-        String s = key;
-        while (!s.isEmpty()) {
-            for (String k : known) {
-                if (k.startsWith(s + "-")) {
-                    return s;
-                }
-            }
-            int dash = s.lastIndexOf('-');
-            s = dash < 0 ? "" : s.substring(0, dash);
-        }
-        return "";
-    }
-
-    private static boolean isEngine(String def) {
-        return !List.of("registers", "sram", "cache", "dram").contains(defName(def));
-    }
-
-    /** True when a sibling definition (another engine kind, another memory level) takes {@code key}. */
-    private static boolean siblingsTake(String def, String key) {
-        boolean engine = isEngine(def);
-        JsonNode defs = Holder.JSON.path("$defs");
-        for (Iterator<String> it = defs.fieldNames(); it.hasNext(); ) {
-            String name = it.next();
-            if (name.equals(defName(def)) || isEngine("#/$defs/" + name) != engine) {
-                continue;
-            }
-            if (defs.path(name).path("properties").has(key) && defs.path(name).has("additionalProperties")) {
-                return true;
-            }
-        }
-        return false;
-    }
-
-    private static String defName(String def) {
-        int i = def.lastIndexOf('/');
-        return def.startsWith("#/$defs/") ? def.substring(i + 1) : "profile";
-    }
-
-    private static String article(String word) {
-        return ("aeiou".indexOf(word.charAt(0)) >= 0 ? "an " : "a ") + word;
     }
 
     private void required(String path, String key, String where) {
@@ -509,7 +409,7 @@ final class ProfileSchema {
         boolean dram = false;
         boolean unresolved = false;
         Set<String> known = new java.util.HashSet<>();
-        for (JsonNode l : Holder.JSON.at("/$defs/memory/properties/level/enum")) {
+        for (JsonNode l : SchemaSource.JSON.at("/$defs/memory/properties/level/enum")) {
             known.add(l.asText());
         }
         for (int i = 0; i < list.list.size(); i++) {
@@ -550,82 +450,12 @@ final class ProfileSchema {
         }
     }
 
-    private static String text(Node map, String key) {
-        Entry e = map.map.get(key);
-        return e == null || e.value.type != Type.SCALAR || e.value.token != JsonToken.VALUE_STRING ? null
-                : e.value.text;
-    }
-
     // ---- helpers ----
-
-    /** erg's key path ({@code engines[0].rows}) of a validator location. */
-    private static String path(JsonNodePath p) {
-        StringBuilder b = new StringBuilder();
-        for (int i = 0; i < p.getNameCount(); i++) {
-            Object el = p.getElement(i);
-            if (el instanceof Integer) {
-                b.append('[').append(el).append(']');
-            } else {
-                if (b.length() > 0) {
-                    b.append('.');
-                }
-                b.append(el);
-            }
-        }
-        return b.toString();
-    }
-
-    private static String join(String path, String key) {
-        return path.isEmpty() ? key : path + "." + key;
-    }
-
-    private static String lastKey(String path) {
-        int dot = path.lastIndexOf('.');
-        String k = dot < 0 ? path : path.substring(dot + 1);
-        int br = k.indexOf('[');
-        return br < 0 ? k : k.substring(0, br);
-    }
-
-    /** The schema node at a location such as {@code #/$defs/mac-array/oneOf}. */
-    private static JsonNode schemaAt(String location) {
-        String pointer = location.startsWith("#") ? location.substring(1) : location;
-        return Holder.JSON.at(pointer);
-    }
-
-    private static String enumText(JsonNode values) {
-        List<String> out = new ArrayList<>();
-        for (JsonNode v : values) {
-            out.add(v.asText());
-        }
-        return String.join(", ", out);
-    }
-
-    private static String orText(JsonNode values) {
-        List<String> out = new ArrayList<>();
-        for (JsonNode v : values) {
-            out.add(v.asText());
-        }
-        return orList(out);
-    }
 
     /** The labels an energy or rate table accepts, as messages list them. */
     static String precisionLabels() {
-        return enumText(Holder.JSON.at("/$defs/precision/anyOf/0/enum")) + ", int1 to int64, uint1 to uint64, or "
+        return enumText(SchemaSource.JSON.at("/$defs/precision/anyOf/0/enum")) + ", int1 to int64, uint1 to uint64, or "
                 + "a weight/activation pair such as w4a8";
-    }
-
-    private static String orList(List<String> keys) {
-        if (keys.size() == 1) {
-            return keys.get(0);
-        }
-        return String.join(", ", keys.subList(0, keys.size() - 1)) + " or " + keys.get(keys.size() - 1);
-    }
-
-    private static String andList(List<String> keys) {
-        if (keys.size() == 1) {
-            return keys.get(0);
-        }
-        return String.join(", ", keys.subList(0, keys.size() - 1)) + " and " + keys.get(keys.size() - 1);
     }
 
     private static String plain(ValidationMessage m, String path) {
