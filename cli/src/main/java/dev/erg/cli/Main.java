@@ -73,10 +73,11 @@ public final class Main implements Callable<Integer> {
             case "analyze" -> cl.addSubcommand(new AnalyzeCommand());
             case "estimate" -> cl.addSubcommand(new EstimateCommand());
             case "check" -> cl.addSubcommand(new CheckCommand());
+            case "calibrate" -> cl.addSubcommand(new CalibrateCommand());
             case "measure", "host-profile" -> addOptionalCommands(cl, first);
             default -> {
                 cl.addSubcommand(new AnalyzeCommand()).addSubcommand(new EstimateCommand())
-                        .addSubcommand(new CheckCommand());
+                        .addSubcommand(new CheckCommand()).addSubcommand(new CalibrateCommand());
                 addOptionalCommands(cl, null);
                 cl.addSubcommand(new CommandLine.HelpCommand());
             }

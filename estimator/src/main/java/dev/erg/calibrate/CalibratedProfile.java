@@ -48,14 +48,20 @@ public final class CalibratedProfile {
     }
 
     /**
-     * The error band of one metric: the signed errors of whole models (or of layers when no whole
-     * model was measured), each model predicted by a fit on the others when there are three or more.
+     * The error band of one metric. With three models or more: the signed errors of each model
+     * predicted by a fit on the others (whole models, or layers when no whole model was measured).
+     * With fewer: the fit's own errors on single layers, since a whole model that the fit was made on
+     * says nothing of the error. Null when neither exists (the metric's error stays unknown).
      */
     public static Band band(Calibration c, Metric metric) {
         boolean heldOut = c.heldOut() != null;
-        ErrorSummary models = heldOut ? c.leaveOneModelOut(metric, Scope.MODELS) : c.errorAfter(metric, Scope.MODELS);
-        ErrorSummary layers = heldOut ? c.leaveOneModelOut(metric, Scope.LAYERS) : c.errorAfter(metric, Scope.LAYERS);
-        ErrorSummary used = models.count() > 0 ? models : layers;
+        ErrorSummary used;
+        if (heldOut) {
+            ErrorSummary models = c.leaveOneModelOut(metric, Scope.MODELS);
+            used = models.count() > 0 ? models : c.leaveOneModelOut(metric, Scope.LAYERS);
+        } else {
+            used = c.errorAfter(metric, Scope.LAYERS);
+        }
         if (used.count() == 0) {
             return null;
         }
@@ -106,6 +112,7 @@ public final class CalibratedProfile {
         for (String m : models) {
             b.append("    - ").append(str(m)).append('\n');
         }
+        int errorAt = b.length();
         b.append("  error:\n");
         for (Metric m : Metric.values()) {
             Band band = band(c, m);
@@ -117,23 +124,27 @@ public final class CalibratedProfile {
             b.append("      models: ").append(band.models()).append('\n');
             ErrorSummary before = c.errorBefore(m, Scope.ALL);
             ErrorSummary after = c.errorAfter(m, Scope.ALL);
-            b.append("      median-before: ").append(num(before.median())).append('\n');
-            b.append("      worst-before: ").append(num(before.worst())).append('\n');
-            b.append("      median: ").append(num(after.median())).append('\n');
-            b.append("      worst: ").append(num(after.worst())).append('\n');
+            b.append("      median-before: ").append(err(before.median())).append('\n');
+            b.append("      worst-before: ").append(err(before.worst())).append('\n');
+            b.append("      median: ").append(err(after.median())).append('\n');
+            b.append("      worst: ").append(err(after.worst())).append('\n');
             ErrorSummary wm = c.errorAfter(m, Scope.MODELS);
             if (wm.count() > 0) {
-                b.append("      models-median: ").append(num(wm.median())).append('\n');
-                b.append("      models-worst: ").append(num(wm.worst())).append('\n');
+                b.append("      models-median: ").append(err(wm.median())).append('\n');
+                b.append("      models-worst: ").append(err(wm.worst())).append('\n');
             }
             ErrorSummary lo = c.leaveOneModelOut(m, Scope.ALL);
             if (lo != null && lo.count() > 0) {
-                b.append("      leave-one-model-out-median: ").append(num(lo.median())).append('\n');
-                b.append("      leave-one-model-out-worst: ").append(num(lo.worst())).append('\n');
+                b.append("      leave-one-model-out-median: ").append(err(lo.median())).append('\n');
+                b.append("      leave-one-model-out-worst: ").append(err(lo.worst())).append('\n');
             }
-            b.append("      band-low: ").append(num(Math.max(band.low(), -0.9999))).append('\n');
-            b.append("      band-high: ").append(num(band.high())).append('\n');
+            b.append("      band-low: ").append(err(Math.max(band.low(), -0.9999))).append('\n');
+            b.append("      band-high: ").append(err(band.high())).append('\n');
             b.append("      band-from: ").append(band.from()).append('\n');
+        }
+        if (b.length() == errorAt + "  error:\n".length()) {
+            b.setLength(errorAt);
+            b.append("  error: {}\n");
         }
         b.append("  residuals:\n");
         for (Residual r : c.residuals()) {
@@ -146,7 +157,7 @@ public final class CalibratedProfile {
             b.append(", metric: ").append(lat ? "latency-ms" : "energy-uj")
                     .append(", measured: ").append(num(r.measured() * scale))
                     .append(", estimated: ").append(num(r.after() * scale))
-                    .append(", error: ").append(num(r.errorAfter())).append(" }\n");
+                    .append(", error: ").append(err(r.errorAfter())).append(" }\n");
         }
         if (!c.notes().isEmpty()) {
             b.append("  notes:\n");
@@ -155,6 +166,11 @@ public final class CalibratedProfile {
             }
         }
         return b.toString();
+    }
+
+    /** A relative error, to four decimals. */
+    static String err(double v) {
+        return num(Math.round(v * 1e4) / 1e4);
     }
 
     /** Four significant digits, plain decimal (the profile format takes no NaN). */

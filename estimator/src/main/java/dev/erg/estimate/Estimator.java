@@ -185,8 +185,37 @@ public final class Estimator {
         if (!device.energyKnown()) {
             uniq.add("the profile gives no energies: energy and power are unknown");
         }
+        uniq.add(errorNote(device.calibration()));
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? sramWeightBytes : 0, totalWeights, p.activationPeak, dramPerFrame, uniq, reloaded);
+    }
+
+    /** What is known of the estimate's error: the calibration's bands, or that it is unknown. */
+    static String errorNote(ProfileCalibration c) {
+        if (c == null) {
+            return "the profile is not calibrated: the error of these estimates is unknown";
+        }
+        StringBuilder b = new StringBuilder("the profile is calibrated");
+        String sep = ": ";
+        for (String metric : new String[] {"latency", "energy"}) {
+            ProfileCalibration.Band band = metric.equals("latency") ? c.latency() : c.energy();
+            if (band == null) {
+                continue;
+            }
+            b.append(sep).append(metric).append(" estimates were off by ").append(signed(band.low())).append(" \u2026 ")
+                    .append(signed(band.high())).append(" on ").append(band.basis())
+                    .append(band.from().equals("fit") ? "" : " (each model predicted from the others)");
+            sep = "; ";
+        }
+        if (c.energy() == null) {
+            b.append(sep).append("the error of energy estimates is unknown");
+        }
+        return b.toString();
+    }
+
+    private static String signed(double share) {
+        long p = Math.round(share * 100);
+        return (p < 0 ? "\u2212" + (-p) : "+" + p) + "%";
     }
 
     /** Deployed bytes of the constants a node reads (not its parameters); their stored tensors go to {@code src}. */

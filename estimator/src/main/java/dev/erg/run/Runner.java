@@ -60,7 +60,7 @@ public final class Runner {
                 progress.say("estimating " + m.label() + " on " + profile.id());
                 DeviceEstimate e = Estimator.estimate(w, profile);
                 pairs.add(Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
-                        req.failOnUnmodelled()));
+                        req.failOnUnmodelled(), req.failWhenAtRisk()));
             }
         }
         GateResult result = Gate.result(pairs, req.budget(), growth, req.baselineLabel(), baseline != null, notes);

@@ -33,6 +33,17 @@ public class ModelConfig {
     /** Constant values of small graph inputs, e.g. {@code <sr>16000</sr>} or {@code <ids>1,2,3</ids>}. */
     private Map<String, String> values = new LinkedHashMap<>();
 
+    private String measured;
+
+    /** The model's measurement file (CSV, docs/calibration.md), read by the calibrate goal; or null. */
+    public String getMeasured() {
+        return measured;
+    }
+
+    public void setMeasured(String measured) {
+        this.measured = measured;
+    }
+
     public ModelConfig() {
     }
 
