@@ -18,7 +18,8 @@ import org.apache.maven.plugins.annotations.Parameter;
 /**
  * Calibrates each device profile file of {@code <devices>} on the models that have a
  * {@code <measured>} file, and writes the calibrated profile next to the one it read
- * ({@code NAME.calibrated.yaml}) for the user to commit. Bound to no phase: run {@code mvn erg:calibrate}.
+ * ({@code NAME.calibrated.yaml}) for the user to commit; a listed {@code NAME.calibrated.yaml} is
+ * written from {@code NAME.yaml} next to it. Bound to no phase: run {@code mvn erg:calibrate}.
  * The {@code check} and {@code report} goals use a calibrated profile like any profile.
  */
 @Mojo(name = "calibrate", threadSafe = true)
@@ -79,8 +80,9 @@ public class CalibrateMojo extends AbstractMojo {
             throw new MojoExecutionException("erg: calibrate: no device profile file among <devices> (a preset"
                     + " cannot be calibrated in place; write it to a file and list that file)");
         }
-        for (Path p : profiles) {
-            Path out = calibratedName(p);
+        for (Path listed : profiles) {
+            Path out = calibratedName(listed);
+            Path p = sourceOf(listed);
             try {
                 Calibration c = CalibrationRun.run(files, bindings, p, new ArrayList<>(measured), out);
                 getLog().info(PREFIX + "calibrated " + base.relativize(p) + " on " + files.size()
@@ -93,6 +95,21 @@ public class CalibrateMojo extends AbstractMojo {
                 throw new MojoExecutionException("erg: " + e.getMessage(), e);
             }
         }
+    }
+
+    /**
+     * The profile a listed device is calibrated from: for NAME.calibrated.yaml, NAME.yaml next to it
+     * when it exists (the build lists the calibrated profile, the user edits the original); otherwise
+     * the listed file itself.
+     */
+    static Path sourceOf(Path listed) {
+        String name = listed.getFileName().toString();
+        int at = name.indexOf(".calibrated.");
+        if (at < 0) {
+            return listed;
+        }
+        Path original = listed.resolveSibling(name.substring(0, at) + name.substring(at + ".calibrated".length()));
+        return java.nio.file.Files.isRegularFile(original) ? original : listed;
     }
 
     /** NAME.yaml -> NAME.calibrated.yaml next to it; a calibrated profile is recalibrated in place. */
