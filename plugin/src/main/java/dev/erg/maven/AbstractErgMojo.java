@@ -220,6 +220,9 @@ abstract class AbstractErgMojo extends AbstractMojo {
         for (String n : r.notes()) {
             getLog().warn(PREFIX + n);
         }
+        for (dev.erg.budget.Check c : r.atRisk()) {
+            getLog().warn(PREFIX + "at risk: " + c.message());
+        }
     }
 
     /**
