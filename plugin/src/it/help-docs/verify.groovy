@@ -3,7 +3,7 @@
 def erg = evaluate(new File(itCommon, 'ErgIt.groovy'))
 List<String> out = erg.logLines().collect { it.startsWith('[INFO] ') ? it.substring(7) : it }
 def goals = out.findAll { it ==~ /^erg:[a-z]+$/ }.collect { it.substring(4) }
-assert goals.sort() == ['baseline', 'check', 'help', 'report']
+assert goals.sort() == ['baseline', 'calibrate', 'check', 'help', 'report']
 // parameters: four spaces, a name, and maybe "(Default: ...)"; properties: "User property: erg.x"
 def params = out.findAll { it ==~ /^    [a-zA-Z]+( \(Default: .*\))?$/ }.collect { it.trim().split(' ')[0] }.unique()
 def props = out.findAll { it ==~ /^\s+User property: .*/ }.collect { it.split(':', 2)[1].trim() }.unique()

@@ -71,6 +71,11 @@ class CheckCommand implements Callable<Integer> {
             description = "The most each metric may grow over the baseline, in percent (needs --baseline).")
     Double maxGrowthPercent;
 
+    @Option(names = "--fail-when-at-risk",
+            description = "Makes a check whose limit lies inside a calibrated profile's error band fail (exit 1)"
+                    + " instead of passing with a warning.")
+    boolean failWhenAtRisk;
+
     @Option(names = "--write-baseline",
             description = "Writes this run's results to the --baseline file, keeping the entries of other models"
                     + " and devices (growth is then not checked).")
@@ -181,7 +186,7 @@ class CheckCommand implements Callable<Integer> {
             specs.add(new ModelSpec(m.toString(), m).withBindings(bindings).withPrecision(rules).withSweep(sweep));
         }
         RunRequest.Builder b = RunRequest.builder().failOnUnmodelled(modelOptions.failOnUnmodelled)
-                .failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);
+                .failWhenAtRisk(failWhenAtRisk).failOnViolation(failOnViolation).writeBaseline(writeBaseline).maxGrowthPercent(maxGrowthPercent);
         if (baseline != null) {
             b.baseline(baseline.toString(), baseline);
         }

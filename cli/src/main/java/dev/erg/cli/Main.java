@@ -74,10 +74,12 @@ public final class Main implements Callable<Integer> {
             case "estimate" -> cl.addSubcommand(new EstimateCommand());
             case "check" -> cl.addSubcommand(new CheckCommand());
             case "advise" -> cl.addSubcommand(new AdviseCommand());
+            case "calibrate" -> cl.addSubcommand(new CalibrateCommand());
             case "measure", "host-profile" -> addOptionalCommands(cl, first);
             default -> {
                 cl.addSubcommand(new AnalyzeCommand()).addSubcommand(new EstimateCommand())
-                        .addSubcommand(new CheckCommand()).addSubcommand(new AdviseCommand());
+                        .addSubcommand(new CheckCommand()).addSubcommand(new AdviseCommand())
+                        .addSubcommand(new CalibrateCommand());
                 addOptionalCommands(cl, null);
                 cl.addSubcommand(new CommandLine.HelpCommand());
             }

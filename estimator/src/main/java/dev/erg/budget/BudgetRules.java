@@ -1,5 +1,6 @@
 package dev.erg.budget;
 
+import dev.erg.device.ProfileCalibration;
 import dev.erg.estimate.DeviceEstimate;
 import dev.erg.format.Numbers;
 import dev.erg.estimate.NodeEstimate;
@@ -74,39 +75,115 @@ public final class BudgetRules {
      * @param band the estimate's relative uncertainty; a value that holds by less is at risk (0: none)
      */
     public static List<Check> check(String who, DeviceEstimate e, Budget budget, double band) {
+        return check(who, e, budget, band, false);
+    }
+
+    /**
+     * As above; a profile's calibration gives each estimated metric its own band (see {@link #band}),
+     * which takes the place of {@code band}. With {@code failWhenAtRisk}, a check at risk fails.
+     */
+    public static List<Check> check(String who, DeviceEstimate e, Budget budget, double band, boolean failWhenAtRisk) {
         double fps = fps(budget, e);
         List<Check> out = new ArrayList<>();
         for (BudgetRule r : RULES) {
             Double limit = budget.limit(r.key());
             if (limit != null) {
-                out.add(check(r, who, e, fps, limit, band));
+                out.add(check(r, who, e, fps, limit, band, failWhenAtRisk));
             }
         }
         return out;
     }
 
     static Check check(BudgetRule r, String who, DeviceEstimate e, double fps, double limit, double band) {
+        return check(r, who, e, fps, limit, band, false);
+    }
+
+    static Check check(BudgetRule r, String who, DeviceEstimate e, double fps, double limit, double band,
+                       boolean failWhenAtRisk) {
         double v = r.value().of(e, fps);
-        Verdict verdict = Verdict.of(v, limit, r.atMost(), band);
+        double[] range = band(r.metric(), e.device().calibration());
+        String basis = null;
+        if (range != null) {
+            basis = basis(r.metric(), e.device().calibration());
+        } else if (band > 0) {
+            range = new double[] {-band, band};
+        }
+        Verdict verdict = range == null ? Verdict.of(v, limit, r.atMost(), 0)
+                : Verdict.of(v, limit, r.atMost(), range[0], range[1]);
+        boolean atRisk = verdict == Verdict.AT_RISK;
+        if (atRisk && failWhenAtRisk) {
+            verdict = Verdict.FAIL;
+        }
         boolean ok = verdict != Verdict.FAIL;
+        boolean holds = ok || atRisk;
         List<LayerShare> top = top(e, r.blame());
         String unit = r.metric().unit;
         StringBuilder m = new StringBuilder(who).append(": ").append(r.metric().label).append(' ')
                 .append(Numbers.sig(v)).append(' ').append(unit);
+        if (basis != null) {
+            m.append(" (").append(signed(range[0])).append(" \u2026 ").append(signed(range[1])).append(" after calibration on ")
+                    .append(basis).append(')');
+        }
         if (r.qualifier() != null) {
             m.append(r.qualifier().of(e, fps));
         }
-        m.append(' ').append(ok ? r.words().pass() : r.words().fail()).append(" the ").append(r.words().limit())
+        m.append(' ').append(holds ? r.words().pass() : r.words().fail()).append(" the ").append(r.words().limit())
                 .append(" of ").append(Numbers.sig(limit)).append(' ').append(unit);
-        if (!ok) {
+        if (!holds) {
             if (r.failDetail() != null) {
                 m.append(r.failDetail().of(e, fps));
             }
             m.append(shares(r.blameBy(), top));
-        } else if (verdict == Verdict.AT_RISK) {
+        } else if (atRisk && basis != null) {
+            m.append(", but the ").append(r.words().limit()).append(" lies inside the error band: at risk");
+        } else if (atRisk) {
             m.append(", by less than the estimate's uncertainty of ").append(percent(band));
         }
+        if (atRisk && failWhenAtRisk) {
+            m.append(" (checks at risk fail this run)");
+        }
         return new Check(Check.Kind.BUDGET, r.metric(), v, limit, Double.NaN, verdict, top, m.toString());
+    }
+
+    /**
+     * Where the true value of {@code metric} may lie, relative to the estimate, from a calibration's
+     * error band: {low, high} with low <= 0 <= high, or null when the metric has no band (no
+     * calibration, the metric was not measured, or it is a count such as weight bytes). A band is
+     * made of errors e = estimate / measured - 1, so the measured value is estimate / (1 + e); a frame
+     * rate is the inverse of a latency, so its range is the errors themselves.
+     */
+    public static double[] band(Metric metric, ProfileCalibration c) {
+        if (c == null) {
+            return null;
+        }
+        ProfileCalibration.Band b = switch (metric) {
+            case FRAME_RATE, LATENCY -> c.latency();
+            case POWER, ENERGY_PER_FRAME -> c.energy();
+            default -> null;
+        };
+        if (b == null) {
+            return null;
+        }
+        if (metric == Metric.FRAME_RATE) {
+            return new double[] {b.low(), b.high()};
+        }
+        return new double[] {1 / (1 + b.high()) - 1, 1 / (1 + Math.max(b.low(), -0.9999)) - 1};
+    }
+
+    /** "14 layers of 3 models" for the metric's band, or null. */
+    public static String basis(Metric metric, ProfileCalibration c) {
+        ProfileCalibration.Band b = switch (metric) {
+            case FRAME_RATE, LATENCY -> c.latency();
+            case POWER, ENERGY_PER_FRAME -> c.energy();
+            default -> null;
+        };
+        return b == null ? null : b.basis();
+    }
+
+    /** A signed whole percentage, with a true minus sign: "\u22129%", "+12%". */
+    static String signed(double share) {
+        long p = Math.round(share * 100);
+        return (p < 0 ? "\u2212" + (-p) : "+" + p) + "%";
     }
 
     /** The three layers with the largest positive {@code f}, with their share of the sum of positive values. */

@@ -29,6 +29,16 @@ public final class Gate {
      */
     public static PairResult evaluatePair(String model, String device, DeviceEstimate e, Budget budget,
                                           Baseline baseline, Double maxGrowthPercent, boolean requireModelled) {
+        return evaluatePair(model, device, e, budget, baseline, maxGrowthPercent, requireModelled, false);
+    }
+
+    /**
+     * As above; with {@code failWhenAtRisk}, a budget check whose limit lies inside the calibrated
+     * profile's error band fails instead of passing with a warning.
+     */
+    public static PairResult evaluatePair(String model, String device, DeviceEstimate e, Budget budget,
+                                          Baseline baseline, Double maxGrowthPercent, boolean requireModelled,
+                                          boolean failWhenAtRisk) {
         String who = model + " on " + device;
         List<Check> checks = new ArrayList<>();
         if (requireModelled) {
@@ -44,7 +54,7 @@ public final class Gate {
                 }
             }
         }
-        checks.addAll(BudgetRules.check(who, e, budget, 0));
+        checks.addAll(BudgetRules.check(who, e, budget, 0, failWhenAtRisk));
         Baseline.Entry base = baseline == null ? null : baseline.entry(model, device);
         List<LayerDiff> diff = base == null ? List.of() : Baseline.diff(base, e);
         if (base != null && maxGrowthPercent != null) {

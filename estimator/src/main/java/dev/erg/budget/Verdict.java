@@ -1,8 +1,9 @@
 package dev.erg.budget;
 
 /**
- * How one check, one pair or a whole run came out. {@link #AT_RISK} is a pass whose margin is
- * smaller than the estimate's known uncertainty: it is listed, but it never fails a build.
+ * How one check, one pair or a whole run came out. {@link #AT_RISK} is a pass whose limit lies inside
+ * the estimate's error band (a calibrated profile's): it is listed and warned about, and fails a build
+ * only when the run asks at-risk checks to fail.
  */
 public enum Verdict {
     PASS("pass"), AT_RISK("at risk"), FAIL("fail");
@@ -24,16 +25,20 @@ public enum Verdict {
      * it holds but moving it by {@code band} (a relative uncertainty, 0 for none) would break it.
      */
     public static Verdict of(double value, double limit, boolean atMost, double band) {
+        return of(value, limit, atMost, -band, band);
+    }
+
+    /**
+     * As above with an uneven band: the true value may lie anywhere from {@code value x (1 + low)} to
+     * {@code value x (1 + high)} ({@code low <= 0 <= high}); AT_RISK when the limit lies inside it.
+     */
+    public static Verdict of(double value, double limit, boolean atMost, double low, double high) {
         boolean ok = atMost ? value <= limit : value >= limit;
         if (!ok) {
             return FAIL;
         }
-        if (band > 0) {
-            double worst = atMost ? value * (1 + band) : value * (1 - band);
-            if (atMost ? worst > limit : worst < limit) {
-                return AT_RISK;
-            }
-        }
-        return PASS;
+        double worst = atMost ? value * (1 + high) : value * (1 + low);
+        return (atMost ? worst > limit : worst < limit) ? AT_RISK : PASS;
     }
+
 }

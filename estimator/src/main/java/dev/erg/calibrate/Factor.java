@@ -1,5 +1,7 @@
 package dev.erg.calibrate;
 
+import dev.erg.workload.OpClass;
+
 /**
  * The correction factors a calibration fits. Each one means something physical, so that a fitted
  * value can be read and judged: an efficiency of 0.3 says the engine reaches 30% of the profile's

@@ -1,5 +1,6 @@
 package dev.erg.calibrate;
 
+import dev.erg.workload.OpClass;
 import dev.erg.estimate.NodeEstimate;
 
 /**
@@ -43,8 +44,9 @@ public record NodeCost(String name, OpClass opClass, double computeSeconds, doub
         }
         var en = e.energy();
         return new NodeCost(e.name(), OpClass.of(e.work()), e.computeSeconds(), e.sramSeconds(),
-                finiteOrZero(e.dramSeconds()), e.overheadSeconds(), e.fusedInto() == null ? 1 : 0, en.compute(),
-                en.registers() + en.sram(), en.dram());
+                finiteOrZero(e.dramSeconds()), e.overheadSeconds(), e.fusedInto() == null ? 1 : 0,
+                finiteOrZero(en.compute() + en.conversion() + en.cellWrites() + en.rowDrive()),
+                finiteOrZero(en.registers() + en.sram()), finiteOrZero(en.dram()));
     }
 
     private static double finiteOrZero(double v) {

@@ -20,6 +20,7 @@ public final class DeviceProfile {
     private final Map<String, String> sources;
     private final List<Memory> caches;
     private double maxClockMhz;
+    private final ProfileCalibration calibration;
 
     public DeviceProfile(String id, String name, double clockMhz, List<Engine> engines, Memory registers, Memory sram,
                          Memory dram, double staticPowerMw, String deployPrecision, Map<String, String> sources) {
@@ -41,6 +42,14 @@ public final class DeviceProfile {
     public DeviceProfile(String id, String name, String description, double clockMhz, List<Engine> engines,
                          Memory registers, Memory sram, List<Memory> caches, Memory dram, double staticPowerMw,
                          String deployPrecision, Map<String, String> sources) {
+        this(id, name, description, clockMhz, engines, registers, sram, caches, dram, staticPowerMw, deployPrecision,
+                sources, null);
+    }
+
+    /** As above, with the profile's calibration (or null when it has none). */
+    public DeviceProfile(String id, String name, String description, double clockMhz, List<Engine> engines,
+                         Memory registers, Memory sram, List<Memory> caches, Memory dram, double staticPowerMw,
+                         String deployPrecision, Map<String, String> sources, ProfileCalibration calibration) {
         if ((sram == null) == caches.isEmpty()) {
             throw new IllegalArgumentException("a profile has an sram level or cache levels, not both or neither");
         }
@@ -56,6 +65,26 @@ public final class DeviceProfile {
         this.staticPowerMw = staticPowerMw;
         this.deployPrecision = deployPrecision;
         this.sources = Collections.unmodifiableMap(new LinkedHashMap<>(sources));
+        this.calibration = calibration;
+        this.sramGiven = sram;
+    }
+
+    private final Memory sramGiven;
+
+    /** The calibration the profile carries (factors the estimator applies, error bands), or null. */
+    public ProfileCalibration calibration() {
+        return calibration;
+    }
+
+    /** The same profile without its calibration: what a new calibration is fitted against. */
+    public DeviceProfile withoutCalibration() {
+        if (calibration == null) {
+            return this;
+        }
+        DeviceProfile p = new DeviceProfile(id, name, description, clockMhz, engines, registers, sramGiven, caches, dram,
+                staticPowerMw, deployPrecision, sources, null);
+        p.maxClockMhz = maxClockMhz;
+        return p;
     }
 
     /** Where the profile came from: "preset:ID" or the file path as given. */
@@ -115,13 +144,13 @@ public final class DeviceProfile {
     private DeviceProfile copy(double clock, List<Engine> es, Memory s) {
         DeviceProfile p;
         if (caches.isEmpty()) {
-            p = new DeviceProfile(id, name, description, clock, es, registers, s, dram, staticPowerMw,
-                    deployPrecision, sources);
+            p = new DeviceProfile(id, name, description, clock, es, registers, s, List.of(), dram, staticPowerMw,
+                    deployPrecision, sources, calibration);
         } else { // a processor: the last cache level is the one that holds weights and activations
             List<Memory> cs = new java.util.ArrayList<>(caches);
             cs.set(cs.size() - 1, s);
             p = new DeviceProfile(id, name, description, clock, es, registers, null, cs, dram, staticPowerMw,
-                    deployPrecision, sources);
+                    deployPrecision, sources, calibration);
         }
         p.maxClockMhz = maxClockMhz;
         return p;
@@ -175,8 +204,10 @@ public final class DeviceProfile {
         return dram;
     }
 
+    /** Static power: the calibration's fitted value when it has one, else the profile's. */
     public double staticPowerMw() {
-        return staticPowerMw;
+        return calibration == null ? staticPowerMw
+                : calibration.factor(ProfileCalibration.STATIC_POWER_MW, staticPowerMw);
     }
 
     /** The precision the device's compiler deploys float tensors at (e.g. "int8"), or null to follow the model. */

@@ -64,7 +64,7 @@ final class ProfileReader extends ProfileFields {
         energiesAllOrNone(top, engines, levels, caches);
         Map<String, String> sources = sources(top, root);
         DeviceProfile p = new DeviceProfile(id, name, description, clockMhz, engines, levels[0], levels[1], caches,
-                levels[2], staticMw, deploy, sources);
+                levels[2], staticMw, deploy, sources, calibration(top));
         return maxClockMhz > 0 ? p.withMaxClockMhz(maxClockMhz) : p;
     }
 
@@ -242,6 +242,55 @@ final class ProfileReader extends ProfileFields {
             return Double.NaN;
         }
         return nonNegative(o, e) * (e.key.contains("-pj-") ? 1000 : 1);
+    }
+
+    // ---- calibration ----
+
+    /** The factors and error bands of the calibration section (the schema has checked its shape), or null. */
+    private ProfileCalibration calibration(Obj top) {
+        Entry c = top.get("calibration");
+        if (c == null) {
+            return null;
+        }
+        Obj cal = new Obj(c.value, "calibration");
+        Map<String, Double> factors = new LinkedHashMap<>();
+        Entry f = cal.get("factors");
+        if (f != null) {
+            Obj fo = new Obj(f.value, cal.sub("factors"));
+            for (Entry e : f.value.map.values()) {
+                double v = nonNegative(fo, e);
+                if (!e.key.equals(ProfileCalibration.STATIC_POWER_MW) && !e.key.equals(ProfileCalibration.LAYER_OVERHEAD_US)
+                        && !(v > 0)) {
+                    throw fail(e.value.line, fo.sub(e.key), "must be greater than 0 (got " + e.value.text + ")");
+                }
+                factors.put(e.key, v);
+            }
+        }
+        ProfileCalibration.Band latency = null;
+        ProfileCalibration.Band energy = null;
+        Entry err = cal.get("error");
+        if (err != null) {
+            Obj eo = new Obj(err.value, cal.sub("error"));
+            latency = band(eo, "latency");
+            energy = band(eo, "energy");
+        }
+        return new ProfileCalibration(factors, latency, energy);
+    }
+
+    private ProfileCalibration.Band band(Obj error, String metric) {
+        Entry m = error.get(metric);
+        if (m == null) {
+            return null;
+        }
+        Obj o = new Obj(m.value, error.sub(metric));
+        double low = number(o, o.get("band-low"));
+        double high = number(o, o.get("band-high"));
+        if (low > 0 || high < 0 || low <= -1) {
+            throw fail(m.value.line, o.path, "band-low must lie in (-1, 0] and band-high at or above 0 (got "
+                    + low + " and " + high + ")");
+        }
+        return new ProfileCalibration.Band(low, high, (int) number(o, o.get("layers")), (int) number(o, o.get("models")),
+                text(o, "band-from"));
     }
 
     // ---- sources ----

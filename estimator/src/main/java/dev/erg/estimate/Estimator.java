@@ -4,6 +4,7 @@ import dev.erg.device.DeviceProfile;
 import dev.erg.device.Engine;
 import dev.erg.device.Memory;
 import dev.erg.device.Precisions;
+import dev.erg.device.ProfileCalibration;
 import dev.erg.error.BadInputException;
 import dev.erg.graph.Node;
 import dev.erg.graph.Value;
@@ -11,6 +12,7 @@ import dev.erg.onnx.TensorDef;
 import dev.erg.workload.Kind;
 import dev.erg.workload.ModelWorkload;
 import dev.erg.workload.NodeWork;
+import dev.erg.workload.OpClass;
 import dev.erg.workload.PrecisionOverrides;
 import dev.erg.workload.WorkloadCounter;
 import dev.erg.workload.WorkloadRules;
@@ -139,6 +141,7 @@ public final class Estimator {
         if (!device.energyKnown()) {
             uniq.add("the profile gives no energies: energy and power are unknown");
         }
+        uniq.add(errorNote(device.calibration()));
         return new DeviceEstimate(w, device, List.of(est), total, latency, p.resident,
                 p.resident ? sramWeightBytes : 0, totalWeights, p.activationPeak, dramPerFrame, uniq, reloaded);
     }
@@ -200,6 +203,34 @@ public final class Estimator {
         for (int q = 0, m = src.size(); q < m; q++) {
             set.add(src.get(q));
         }
+    }
+
+    /** What is known of the estimate's error: the calibration's bands, or that it is unknown. */
+    static String errorNote(ProfileCalibration c) {
+        if (c == null) {
+            return "the profile is not calibrated: the error of these estimates is unknown";
+        }
+        StringBuilder b = new StringBuilder("the profile is calibrated");
+        String sep = ": ";
+        for (String metric : new String[] {"latency", "energy"}) {
+            ProfileCalibration.Band band = metric.equals("latency") ? c.latency() : c.energy();
+            if (band == null) {
+                continue;
+            }
+            b.append(sep).append(metric).append(" estimates were off by ").append(signed(band.low())).append(" \u2026 ")
+                    .append(signed(band.high())).append(" on ").append(band.basis())
+                    .append(band.from().equals("fit") ? "" : " (each model predicted from the others)");
+            sep = "; ";
+        }
+        if (c.energy() == null) {
+            b.append(sep).append("the error of energy estimates is unknown");
+        }
+        return b.toString();
+    }
+
+    private static String signed(double share) {
+        long p = Math.round(share * 100);
+        return (p < 0 ? "\u2212" + (-p) : "+" + p) + "%";
     }
 
     /** Deployed bytes of the constants a node reads (not its parameters); their stored tensors go to {@code src}. */
@@ -333,6 +364,16 @@ public final class Estimator {
         double dramBw = device.dram().bandwidth(hz);
         e.sramSeconds = (e.sramReadBytes + e.sramWriteBytes) / sramBw;
         e.dramSeconds = (e.dramReadBytes + e.dramWriteBytes) / dramBw;
+        ProfileCalibration cal = device.calibration();
+        if (cal != null) {
+            // The calibration's factors (docs/calibration.md): achieved share of the peak per operator
+            // class, effective DRAM bandwidth, and a fitted per-layer overhead in place of the profile's.
+            e.computeSeconds /= cal.efficiency(OpClass.of(w).label);
+            e.dramSeconds /= cal.factor(ProfileCalibration.DRAM_BANDWIDTH_SCALE, 1);
+            if (cal.overheadFitted()) {
+                e.overheadSeconds = e.fusedInto == null ? cal.factor(ProfileCalibration.LAYER_OVERHEAD_US, 0) * 1e-6 : 0;
+            }
+        }
         double t = e.computeSeconds;
         e.bound = Bound.COMPUTE;
         if (e.sramSeconds > t) {
@@ -365,8 +406,19 @@ public final class Estimator {
         double sramJ = (e.sramReadBytes * sram.readFjPerByte() + e.sramWriteBytes * sram.writeFjPerByte()) * Pricing.FJ;
         Memory dram = device.dram();
         double dramJ = (e.dramReadBytes * dram.readFjPerByte() + e.dramWriteBytes * dram.writeFjPerByte()) * Pricing.FJ;
-        double leak = device.staticPowerMw() * 1e-3 * e.latencySeconds;
-        e.energy = new Energy(compute, regJ, sramJ, dramJ, leak, macs.conversion(), macs.cellWrites(), macs.rowDrive(),
-                macs.accumulation());
+        double staticMw = device.staticPowerMw();
+        double sc = 1;
+        if (cal != null) {
+            // energy scales per destination (a fitted static power is the profile's staticPowerMw())
+            sc = cal.factor(ProfileCalibration.ENERGY_SCALE_COMPUTE, 1);
+            double so = cal.factor(ProfileCalibration.ENERGY_SCALE_ON_CHIP, 1);
+            compute *= sc;
+            regJ *= so;
+            sramJ *= so;
+            dramJ *= cal.factor(ProfileCalibration.ENERGY_SCALE_DRAM, 1);
+        }
+        double leak = staticMw * 1e-3 * e.latencySeconds;
+        e.energy = new Energy(compute, regJ, sramJ, dramJ, leak, sc * macs.conversion(), sc * macs.cellWrites(),
+                sc * macs.rowDrive(), sc * macs.accumulation());
     }
 }

@@ -36,6 +36,9 @@ public final class ConsoleReport {
             b.append("erg: no budget and no baseline growth to check\n");
         } else {
             b.append(result.passed() ? "erg: all budgets hold\n" : "erg: " + result.failureMessage() + "\n");
+            int risk = result.atRisk().size();
+            b.append(risk == 0 ? "" : "erg: warning: " + risk + (risk == 1 ? " check is" : " checks are")
+                    + " at risk: the limit lies inside the calibrated error band\n");
         }
         b.append(AnalysisJson.NOTICE).append('\n');
         return b.toString();
@@ -52,7 +55,7 @@ public final class ConsoleReport {
         StringBuilder b = new StringBuilder();
         pair(b, f, top);
         for (Check c : p.checks()) {
-            b.append("  ").append(c.passed() ? "ok   " : "FAIL ").append(c.message()).append('\n');
+            b.append("  ").append(!c.passed() ? "FAIL " : c.verdict() == dev.erg.budget.Verdict.AT_RISK ? "RISK " : "ok   ").append(c.message()).append('\n');
         }
         b.append(verdict(p)).append('\n');
         return b.toString();

@@ -87,6 +87,13 @@ public final class JUnitReport {
         for (Check c : p.checks()) {
             x.writeCharacters("\n  ");
             testcase(x, suite, c.key());
+            if (c.verdict() == dev.erg.budget.Verdict.AT_RISK) { // passes with a warning: the limit lies inside the error band
+                x.writeCharacters("\n    ");
+                x.writeStartElement("system-err");
+                x.writeCharacters(clean("at risk: " + c.message()));
+                x.writeEndElement();
+                x.writeCharacters("\n  ");
+            }
             if (!c.passed()) {
                 x.writeCharacters("\n    ");
                 x.writeStartElement("failure");

@@ -110,7 +110,7 @@ public final class MarkdownReport {
                 String unit = c.metric() == null ? "" : " " + c.unit();
                 String value = c.metric() == null ? "-" : Format.sig(c.value()) + unit;
                 String limit = c.metric() == null ? "-" : Format.sig(c.limit()) + unit;
-                b.append("| ").append(c.passed() ? "ok" : "**FAIL**").append(" | ").append(c.key())
+                b.append("| ").append(!c.passed() ? "**FAIL**" : c.verdict() == dev.erg.budget.Verdict.AT_RISK ? "*at risk*" : "ok").append(" | ").append(c.key())
                         .append(" | ").append(text(value)).append(" | ")
                         .append(text(limit)).append(" | ").append(text(c.message()))
                         .append(" |\n");

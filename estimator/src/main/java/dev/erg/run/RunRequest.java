@@ -26,6 +26,7 @@ public final class RunRequest {
     private final Double maxGrowthPercent;
     private final boolean writeBaseline;
     private final boolean failOnUnmodelled;
+    private final boolean failWhenAtRisk;
     private final boolean failOnViolation;
     private final Path reportDir;
     private final Set<String> formats;
@@ -40,6 +41,7 @@ public final class RunRequest {
         this.maxGrowthPercent = b.maxGrowthPercent;
         this.writeBaseline = b.writeBaseline;
         this.failOnUnmodelled = b.failOnUnmodelled;
+        this.failWhenAtRisk = b.failWhenAtRisk;
         this.failOnViolation = b.failOnViolation;
         this.reportDir = b.reportDir;
         this.formats = Set.copyOf(new TreeSet<>(b.formats));
@@ -92,6 +94,11 @@ public final class RunRequest {
     /** True when a node without a rule is a policy violation, listed with the budget's. */
     public boolean failOnUnmodelled() {
         return failOnUnmodelled;
+    }
+
+    /** True when a budget check whose limit lies inside a calibrated profile's error band fails the run. */
+    public boolean failWhenAtRisk() {
+        return failWhenAtRisk;
     }
 
     /** True when a violation fails the run; false for report-only runs that still list every verdict. */
@@ -186,6 +193,7 @@ public final class RunRequest {
         private Double maxGrowthPercent;
         private boolean writeBaseline;
         private boolean failOnUnmodelled;
+        private boolean failWhenAtRisk;
         private boolean failOnViolation = true;
         private Path reportDir;
         private Set<String> formats = Set.of();
@@ -239,6 +247,11 @@ public final class RunRequest {
 
         public Builder failOnUnmodelled(boolean b) {
             failOnUnmodelled = b;
+            return this;
+        }
+
+        public Builder failWhenAtRisk(boolean b) {
+            failWhenAtRisk = b;
             return this;
         }
 

@@ -98,7 +98,7 @@ public final class Runner {
                 progress.say("estimating " + m.label() + " on " + profile.id());
                 DeviceEstimate e = Estimator.estimate(perDevice != null ? perDevice.get(i) : w, profile, m.precision());
                 PairResult pair = Gate.evaluatePair(m.label(), profile.id(), e, req.budgetOf(m, d), baseline, growth,
-                        req.failOnUnmodelled());
+                        req.failOnUnmodelled(), req.failWhenAtRisk());
                 pairs.add(pair);
                 Sweep sw = perDevice != null ? sweeps.get(sweeps.size() - profiles.size() + i) : null;
                 Advice a = Advisor.advise(pair, sw);

@@ -1,5 +1,6 @@
 package dev.erg.calibrate;
 
+import dev.erg.workload.OpClass;
 import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertFalse;
 import static org.junit.jupiter.api.Assertions.assertNull;

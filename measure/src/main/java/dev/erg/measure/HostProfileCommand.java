@@ -14,13 +14,15 @@ import picocli.CommandLine.Option;
 
 /**
  * {@code erg host-profile}: measures this machine's peak MAC rate and memory bandwidth in onnxruntime
- * and writes them, each with its source. No onnxruntime type appears in this class.
+ * and writes a loadable {@code kind: cpu} device profile ({@link HostProfileWriter}), each number with its
+ * source. No onnxruntime type appears in this class.
  */
 @Command(name = "host-profile", mixinStandardHelpOptions = true,
         description = "Measures this machine's peak MAC rate (a large MatMul) and memory bandwidth (a large Add)"
-                + " in onnxruntime and writes the figures with how and when each was measured.")
+                + " in onnxruntime and writes a kind: cpu device profile of it, each number with how and when it was"
+                + " measured.")
 public final class HostProfileCommand implements Callable<Integer> {
-    @Option(names = "--out", paramLabel = "FILE", description = "Where to write the figures (YAML); printed when absent.")
+    @Option(names = "--out", paramLabel = "FILE", description = "Where to write the profile (YAML); printed when absent.")
     Path out;
 
     @Option(names = "--threads", paramLabel = "T", defaultValue = "1",
@@ -42,6 +44,14 @@ public final class HostProfileCommand implements Callable<Integer> {
             description = "Elements of each Add operand (default: ${DEFAULT-VALUE}, 64 MiB of fp32).")
     int elements;
 
+    @Option(names = "--clock-mhz", paramLabel = "MHZ",
+            description = "The core clock, when the system does not tell it (default: 'cpu MHz' of /proc/cpuinfo).")
+    Double clockMhz;
+
+    @Option(names = "--figures-only",
+            description = "Writes the measured figures (host-measurements) instead of a device profile.")
+    boolean figuresOnly;
+
     @CommandLine.Spec
     CommandLine.Model.CommandSpec spec;
 
@@ -52,20 +62,28 @@ public final class HostProfileCommand implements Callable<Integer> {
         check(warmups >= 0 && warmups <= 10_000, "--warmup must be from 0 to 10000, not " + warmups);
         check(side >= 16 && side <= 8192, "--matmul-side must be from 16 to 8192, not " + side);
         check(elements >= 1024 && elements <= (1 << 28), "--add-elements must be from 1024 to 268435456, not " + elements);
+        check(clockMhz == null || (clockMhz > 0 && clockMhz < 100_000), "--clock-mhz must be above 0, not " + clockMhz);
+        double clock = clockMhz != null ? clockMhz : HostProfileWriter.clockMhz();
+        if (!figuresOnly && !(clock > 0)) {
+            throw new BadInputException("host-profile: the system does not tell the core clock; give it with"
+                    + " --clock-mhz (or write the figures only with --figures-only)");
+        }
         HostMeasurements m = HostBench.run(threads, warmups, runs, side, elements);
+        String text = figuresOnly ? m.toYaml() : HostProfileWriter.profile(m, clock, clockMhz != null
+                ? "given with --clock-mhz" : "'cpu MHz' of /proc/cpuinfo when measured", HostProfileWriter.caches());
         PrintWriter pw = spec.commandLine().getOut();
         pw.printf(Locale.ROOT, "peak %.2f GMAC/s (fp32 MatMul), memory %.2f GB/s (fp32 Add), %d %s on %s%n",
                 m.peakMacsPerSecond() / 1e9, m.memoryBytesPerSecond() / 1e9, threads,
                 threads == 1 ? "thread" : "threads", m.processor());
         if (out == null) {
-            pw.print(m.toYaml());
+            pw.print(text);
         } else {
             try {
-                Files.writeString(out, m.toYaml(), StandardCharsets.UTF_8);
+                Files.writeString(out, text, StandardCharsets.UTF_8);
             } catch (IOException e) {
                 throw new BadInputException(out + ": cannot write the host figures (" + e.getMessage() + ")");
             }
-            pw.println("host figures written to " + out);
+            pw.println((figuresOnly ? "host figures" : "host profile") + " written to " + out);
         }
         pw.flush();
         return 0;

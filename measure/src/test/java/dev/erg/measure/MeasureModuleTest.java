@@ -74,6 +74,34 @@ class MeasureModuleTest {
         assertEquals("a MatMul", y.get("sources").get(HostMeasurements.PEAK_KEY).asText());
     }
 
+    /**
+     * The profile host-profile writes loads like any profile: the recording host's figures (23.4 GMAC/s
+     * fp32 at 1 thread, 9.6 GB/s, as measured on 2026-12-03, docs/validation.md) at 2.6 GHz give
+     * 23.4e9 / (2.6e9 x 1) = 9 MACs per cycle per core.
+     */
+    @Test
+    void hostProfileIsALoadableCpuProfileWithASourcePerNumber(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
+            throws IOException {
+        HostMeasurements m = new HostMeasurements("Example CPU", 2, 1, 23.4e9, 9.6e9, Map.of(
+                HostMeasurements.PEAK_KEY, "a MatMul", HostMeasurements.BANDWIDTH_KEY, "an Add"));
+        String text = HostProfileWriter.profile(m, 2600, "given", java.util.List.of(
+                new HostProfileWriter.Cache(1, 32 * 1024, false), new HostProfileWriter.Cache(2, 1024 * 1024, false),
+                new HostProfileWriter.Cache(3, 32L * 1024 * 1024, true)));
+        java.nio.file.Path f = java.nio.file.Files.writeString(dir.resolve("host.yaml"), text);
+        dev.erg.device.DeviceProfile p = dev.erg.device.DeviceLoader.load(f.toString(), null);
+        assertEquals(9.0, p.engines().get(0).cpu().macRate("fp32").perCycle(), 1e-9);
+        assertEquals(1, p.engines().get(0).cpu().cores());
+        assertEquals(3, p.caches().size());
+        assertEquals(32L * 1024 * 1024, p.caches().get(2).capacityBytes());
+        assertEquals(9.6e9, p.dram().bandwidth(p.clockHz()), 1);
+        assertEquals(false, p.energyKnown());
+        for (String key : new String[] {"clock-mhz", "engines[0].cores", "engines[0].macs-per-cycle-per-core.fp32",
+                "memories[0].capacity-bytes", "memories[3].gbytes-per-second"}) {
+            assertEquals(true, p.sources().containsKey(key), key + " in " + p.sources());
+        }
+        assertEquals(1024 * 1024, HostProfileWriter.size("1024K"));
+    }
+
     @Test
     void theErgCommandListsMeasureWhenThisJarIsThere() {
         StringWriter out = new StringWriter();

@@ -63,6 +63,13 @@ abstract class AbstractErgMojo extends AbstractMojo {
     boolean failOnUnmodelled;
 
     /**
+     * Makes a budget check whose limit lies inside a calibrated profile's error band fail the build,
+     * instead of passing with a warning (docs/calibration.md).
+     */
+    @Parameter(property = "erg.failWhenAtRisk", defaultValue = "false")
+    boolean failWhenAtRisk;
+
+    /**
      * Fails the build when a budget, the allowed growth or a policy does not hold. With {@code false}
      * the goal only reports (every verdict is still logged and written), e.g. on a branch.
      */
@@ -126,7 +133,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
                     + ")");
         }
         RunRequest.Builder b = RunRequest.builder().deviceBase(base).failOnUnmodelled(failOnUnmodelled)
-                .failOnViolation(failOnViolation);
+                .failWhenAtRisk(failWhenAtRisk).failOnViolation(failOnViolation);
         try {
             for (int i = 0; i < models.size(); i++) {
                 ModelConfig m = models.get(i);
@@ -176,7 +183,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
     /** The goal's own settings: budgets, growth, reports, baseline writing. */
     abstract void configure(RunRequest.Builder b) throws MojoExecutionException;
 
-    private static Path resolve(Path base, String path, String where) throws MojoExecutionException {
+    static Path resolve(Path base, String path, String where) throws MojoExecutionException {
         try {
             Path p = Path.of(path);
             return p.isAbsolute() ? p : base.resolve(p).normalize();
@@ -225,7 +232,7 @@ abstract class AbstractErgMojo extends AbstractMojo {
     }
 
     /** The model's input bindings: {@code <dimensions>}, {@code <shapes>} and {@code <values>}. */
-    private static InputBindings bindings(String where, ModelConfig m) throws MojoExecutionException {
+    static InputBindings bindings(String where, ModelConfig m) throws MojoExecutionException {
         Map<String, Long> dims = dimensions(where, m.getDimensions());
         try {
             return InputBindings.parse(dims, m.getShapes() == null ? Map.of() : m.getShapes(),
@@ -262,6 +269,9 @@ abstract class AbstractErgMojo extends AbstractMojo {
         }
         for (String n : r.notes()) {
             getLog().warn(PREFIX + n);
+        }
+        for (dev.erg.budget.Check c : r.atRisk()) {
+            getLog().warn(PREFIX + "at risk: " + c.message());
         }
         if (advise || (!o.failed() && !o.advice().isEmpty())) {
             for (String line : o.adviceLines(advise ? -1 : RunOutcome.MESSAGE_CANDIDATES)) {

@@ -57,6 +57,17 @@ public class ModelConfig {
         this.sweeps = sweeps;
     }
 
+    private String measured;
+
+    /** The model's measurement file (CSV, docs/calibration.md), read by the calibrate goal; or null. */
+    public String getMeasured() {
+        return measured;
+    }
+
+    public void setMeasured(String measured) {
+        this.measured = measured;
+    }
+
     public ModelConfig() {
     }
 

@@ -28,7 +28,8 @@ import org.junit.jupiter.api.io.TempDir;
  * The CLI and the plugin on one configuration: two models on two devices, a run budget, a model's own
  * limit and a device's own limit, a baseline that also holds the entry of a model not run. Both
  * front ends fill the library's one run request, so they must write the same baseline bytes, give the
- * same verdicts and write the same report files, byte for byte.
+ * same verdicts and write the same report files, byte for byte. On a calibrated profile with
+ * failWhenAtRisk, both fail the same check at risk.
  */
 @MojoTest
 class FrontEndParityTest {
@@ -169,4 +170,40 @@ class FrontEndParityTest {
             return s.map(p -> p.getFileName().toString()).sorted().toList();
         }
     }
+    /**
+     * A calibrated profile and {@code failWhenAtRisk}: both front ends fail the same check, in the same
+     * words. The board figures are invented for the test (those of the calibrate-at-risk IT).
+     */
+    @Test
+    @InjectMojo(goal = "check", pom = POM)
+    void sameAtRiskFailureOnACalibratedProfile(CheckMojo mojo) throws Exception {
+        models();
+        Path profile = Files.copy(Path.of("src/it/calibrate-at-risk/src/erg/npu.yaml"), dir.resolve("npu.yaml"));
+        Path board = Files.writeString(dir.resolve("board.csv"), "model,node,latency-ms\nsmall.onnx,,0.150\n"
+                + "small.onnx,conv1,0.021\nsmall.onnx,conv2,0.112\nsmall.onnx,relu2,0.009\n");
+        Path calibrated = dir.resolve("npu.calibrated.yaml");
+        dev.erg.calibrate.CalibrationRun.run(List.of(Path.of(small)),
+                dev.erg.graph.InputBindings.parse(Map.of("batch", 1L), Map.of(), Map.of(), "test"), profile,
+                List.of(board), calibrated);
+        mojo.models = List.of(new ModelConfig(small, Map.of("batch", "1")));
+        mojo.devices = List.of(calibrated.toString());
+        mojo.basedir = dir.toFile();
+        BudgetConfig run = new BudgetConfig();
+        run.setTargetFps(7000.0);
+        mojo.budget = run;
+        mojo.outputDirectory = dir.resolve("plugin-reports").toFile();
+        mojo.failWhenAtRisk = true;
+        mojo.setLog(new CapturingLog());
+        MojoFailureException e = assertThrows(MojoFailureException.class, mojo::execute);
+        String[] cli = run(new String[] {"check", small, "--device", calibrated.toString(), "--dim", "batch=1",
+                "--target-fps", "7000", "--fail-when-at-risk"}, Main.VIOLATION);
+        assertTrue(cli[0].contains("\nerg: " + e.getMessage() + "\n"), cli[0] + "\n---\n" + e.getMessage());
+        assertTrue(e.getMessage().contains("after calibration on 3 layers of 1 model) meets the target of 7000 fps, but"
+                + " the target lies inside the error band: at risk (checks at risk fail this run)"), e.getMessage());
+        // without failWhenAtRisk, the CLI passes with the warning
+        String[] pass = run(new String[] {"check", small, "--device", calibrated.toString(), "--dim", "batch=1",
+                "--target-fps", "7000"}, Main.OK);
+        assertTrue(pass[0].contains("erg: warning: 1 check is at risk"), pass[0]);
+    }
+
 }

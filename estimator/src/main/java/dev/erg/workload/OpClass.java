@@ -1,7 +1,5 @@
-package dev.erg.calibrate;
+package dev.erg.workload;
 
-import dev.erg.workload.Kind;
-import dev.erg.workload.NodeWork;
 
 /** The operator classes that get a compute efficiency of their own in a calibration. */
 public enum OpClass {

@@ -1,0 +1,2 @@
+dev.erg.maven.it.ItFixtures.smallCnn(new File(basedir, 'src/main/onnx/net.onnx'))
+return true
