@@ -5,7 +5,6 @@ import com.fasterxml.jackson.core.JsonFactory;
 import com.fasterxml.jackson.core.JsonGenerator;
 import dev.erg.budget.Check;
 import dev.erg.budget.LayerShare;
-import dev.erg.error.BadInputException;
 import dev.erg.explore.Advice;
 import dev.erg.explore.Candidate;
 import dev.erg.format.Numbers;
@@ -14,9 +13,7 @@ import java.io.IOException;
 import java.io.InputStream;
 import java.io.UncheckedIOException;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
-import java.util.ArrayList;
 import java.util.List;
 import java.util.Map;
 import java.util.Set;
@@ -34,33 +31,7 @@ public final class AdviceReport {
 
     /** Writes the requested formats of each advice, keyed by its pair's file stem; returns the files. */
     public static List<Path> write(Map<String, Advice> byStem, Path dir, Set<String> formats) {
-        List<Path> written = new ArrayList<>();
-        Path target = dir;
-        try {
-            Files.createDirectories(dir);
-            for (Map.Entry<String, Advice> e : byStem.entrySet()) {
-                String stem = e.getKey() + ".ways";
-                if (formats.contains("json")) {
-                    target = dir.resolve(stem + ".json");
-                    Files.write(target, json(e.getValue()));
-                    written.add(target);
-                }
-                if (formats.contains("html")) {
-                    target = dir.resolve(stem + ".html");
-                    Files.write(target, html(e.getValue()).getBytes(StandardCharsets.UTF_8));
-                    written.add(target);
-                }
-                if (formats.contains("markdown")) {
-                    target = dir.resolve(stem + ".md");
-                    Files.write(target, markdown(e.getValue()).getBytes(StandardCharsets.UTF_8));
-                    written.add(target);
-                }
-            }
-        } catch (IOException x) {
-            throw new BadInputException(target + ": cannot write the report (" + x.getClass().getSimpleName()
-                    + (x.getMessage() == null ? "" : ": " + x.getMessage()) + ")");
-        }
-        return written;
+        return ReportFiles.write(byStem, "ways", dir, formats, AdviceReport::json, AdviceReport::html, AdviceReport::markdown);
     }
 
     /**

@@ -8,7 +8,6 @@ import com.github.mustachejava.Mustache;
 import dev.erg.budget.BudgetRule;
 import dev.erg.budget.BudgetRules;
 import dev.erg.budget.Check;
-import dev.erg.error.BadInputException;
 import dev.erg.explore.Polynomial;
 import dev.erg.explore.Sweep;
 import dev.erg.explore.SweepMetric;
@@ -21,7 +20,6 @@ import java.io.StringWriter;
 import java.io.UncheckedIOException;
 import java.math.BigInteger;
 import java.nio.charset.StandardCharsets;
-import java.nio.file.Files;
 import java.nio.file.Path;
 import java.util.ArrayList;
 import java.util.LinkedHashMap;
@@ -46,33 +44,7 @@ public final class SweepReport {
     /** Writes the requested formats of each sweep, keyed by its file stem; returns the files written. */
     public static List<Path> write(Map<String, Sweep> byStem, Path dir, Set<String> formats) {
         Reports.checkFormats(formats);
-        List<Path> written = new ArrayList<>();
-        Path target = dir;
-        try {
-            Files.createDirectories(dir);
-            for (Map.Entry<String, Sweep> e : byStem.entrySet()) {
-                String stem = e.getKey() + ".sweep";
-                if (formats.contains("json")) {
-                    target = dir.resolve(stem + ".json");
-                    Files.write(target, json(e.getValue()));
-                    written.add(target);
-                }
-                if (formats.contains("html")) {
-                    target = dir.resolve(stem + ".html");
-                    Files.write(target, html(e.getValue()).getBytes(StandardCharsets.UTF_8));
-                    written.add(target);
-                }
-                if (formats.contains("markdown")) {
-                    target = dir.resolve(stem + ".md");
-                    Files.write(target, markdown(e.getValue()).getBytes(StandardCharsets.UTF_8));
-                    written.add(target);
-                }
-            }
-        } catch (IOException x) {
-            throw new BadInputException(target + ": cannot write the report (" + x.getClass().getSimpleName()
-                    + (x.getMessage() == null ? "" : ": " + x.getMessage()) + ")");
-        }
-        return written;
+        return ReportFiles.write(byStem, "sweep", dir, formats, SweepReport::json, SweepReport::html, SweepReport::markdown);
     }
 
     /**
