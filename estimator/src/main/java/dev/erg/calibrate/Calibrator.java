@@ -39,6 +39,13 @@ public final class Calibrator {
         Factor.ENERGY_SCALE_DRAM, Factor.STATIC_POWER};
     /** Fitted log-factors stay within e^-60 .. e^60 of 1 (a guard against runaway steps, far outside any real value). */
     private static final double LOG_LIMIT = 60;
+    /** The norm that stands for the maximum of a layer's bounds in the first stage of a latency fit. */
+    private static final double SOFT_NORM = 4;
+    /**
+     * The prior's spread of a ratio factor, on the log scale: before any measurement, a profile's figure is
+     * taken to be right within a factor of e either way (one standard deviation).
+     */
+    private static final double PRIOR_SIGMA = 1;
 
     private Calibrator() {
     }
@@ -244,29 +251,46 @@ public final class Calibrator {
 
     /**
      * The prediction of {@code o} and its derivative by the logarithm of each factor, into {@code grad}.
+     * With {@code soft} above 0, a latency takes the {@code soft}-norm of its compute, SRAM and DRAM times
+     * in place of their maximum (see {@link #solve}); 0 is the estimator's own maximum.
      */
-    private static double predictWithGradient(Obs o, double[] f, boolean overheadFitted, double[] grad) {
+    private static double predictWithGradient(Obs o, double[] f, boolean overheadFitted, double[] grad, double soft) {
         Arrays.fill(grad, 0);
         double s = 0;
         int ovh = Factor.LAYER_OVERHEAD.ordinal();
         int bw = Factor.DRAM_BANDWIDTH_SCALE.ordinal();
+        boolean lat = o.metric() == Metric.LATENCY;
         for (NodeCost n : o.nodes()) {
             int eff = Factor.efficiency(n.opClass()).ordinal();
             double c = n.computeSeconds() / f[eff];
             double d = n.dramSeconds() / f[bw];
+            double m = n.sramSeconds();
             double t;
-            if (c >= n.sramSeconds() && c >= d) {
+            if (soft > 0 && lat) {
+                double top = Math.max(c, Math.max(m, d));
+                if (top > 0) {
+                    // t = top * (sum (x/top)^p)^(1/p); dt/dlog(factor) = -x (x/t)^(p-1) for x = c, d
+                    double rc = c / top;
+                    double rm = m / top;
+                    double rd = d / top;
+                    t = top * Math.pow(Math.pow(rc, soft) + Math.pow(rm, soft) + Math.pow(rd, soft), 1 / soft);
+                    grad[eff] -= c * Math.pow(c / t, soft - 1);
+                    grad[bw] -= d * Math.pow(d / t, soft - 1);
+                } else {
+                    t = 0;
+                }
+            } else if (c >= m && c >= d) {
                 t = c;
-                if (o.metric() == Metric.LATENCY) {
+                if (lat) {
                     grad[eff] -= c;
                 }
-            } else if (d >= n.sramSeconds()) {
+            } else if (d >= m) {
                 t = d;
-                if (o.metric() == Metric.LATENCY) {
+                if (lat) {
                     grad[bw] -= d;
                 }
             } else {
-                t = n.sramSeconds();
+                t = m;
             }
             double over = overheadFitted ? f[ovh] * n.launches() : n.overheadSeconds();
             t += over;
@@ -366,6 +390,114 @@ public final class Calibrator {
         return e;
     }
 
+    /** The weighted sum of squared log ratios a fit leaves. */
+    private static double cost(List<Obs> obs, Fit f) {
+        return dataCost(obs, f.values(), f.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
+    }
+
+    private static double dataCost(List<Obs> obs, double[] values, boolean ovh) {
+        double[] w = weights(obs);
+        double c = 0;
+        for (int i = 0; i < w.length; i++) {
+            double p = Math.max(predict(obs.get(i), values, ovh), 1e-30);
+            double d = Math.log(p / obs.get(i).measured());
+            c += w[i] * d * d;
+        }
+        return c;
+    }
+
+    /** The sum of squared logarithms of the fitted ratio factors: how far the fit moves the profile. */
+    private static double priorCost(int[] idx, double[] values) {
+        double c = 0;
+        for (int j : idx) {
+            if (anchored(Factor.values()[j])) {
+                double d = Math.log(values[j]);
+                c += d * d;
+            }
+        }
+        return c;
+    }
+
+    /** A ratio factor, held toward 1 by the prior; absolute quantities (overhead, static power) are not. */
+    private static boolean anchored(Factor f) {
+        return !Double.isNaN(f.neutral);
+    }
+
+    /**
+     * Fits the factors {@code idx} (as logarithms, so that they stay positive) from {@code start} with the
+     * Levenberg-Marquardt optimiser of Hipparchus, minimising the weighted squared log ratios of predicted to
+     * measured values; {@code soft} as in {@link #predictWithGradient}. Returns all factor values, the
+     * others as {@code start} has them.
+     */
+    private static double[] levenbergMarquardt(List<Obs> obs, int[] idx, double[] start, boolean ovhOn, double soft,
+                                               double prior) {
+        int m = obs.size();
+        double[] target = new double[m + idx.length];
+        for (int i = 0; i < m; i++) {
+            target[i] = Math.log(obs.get(i).measured());
+        }
+        // One more row per fitted factor: its logarithm, aimed at 0 (the profile as written), weighed by the
+        // prior for a ratio factor and 0 for an absolute one.
+        double[] w = Arrays.copyOf(weights(obs), m + idx.length);
+        for (int j = 0; j < idx.length; j++) {
+            w[m + j] = anchored(Factor.values()[idx[j]]) ? prior : 0;
+        }
+        double[] theta0 = new double[idx.length];
+        for (int j = 0; j < idx.length; j++) {
+            theta0[j] = Math.log(start[idx[j]]);
+        }
+        LeastSquaresProblem problem = new LeastSquaresBuilder()
+                .start(theta0)
+                .target(target)
+                .weight(new DiagonalMatrix(w))
+                .model(point -> {
+                    double[] f = start.clone();
+                    for (int j = 0; j < idx.length; j++) {
+                        f[idx[j]] = Math.exp(point.getEntry(j));
+                    }
+                    double[] val = new double[m + idx.length];
+                    double[][] jac = new double[m + idx.length][idx.length];
+                    double[] g = new double[f.length];
+                    for (int j = 0; j < idx.length; j++) {
+                        val[m + j] = point.getEntry(j);
+                        jac[m + j][j] = 1;
+                    }
+                    for (int i = 0; i < m; i++) {
+                        double p = predictWithGradient(obs.get(i), f, ovhOn, g, soft);
+                        // A prediction of zero cannot be compared on a log scale: hold it at a tiny time.
+                        double safe = Math.max(p, 1e-30);
+                        val[i] = Math.log(safe);
+                        for (int j = 0; j < idx.length; j++) {
+                            jac[i][j] = g[idx[j]] / safe;
+                        }
+                    }
+                    return new Pair<RealVector, org.hipparchus.linear.RealMatrix>(
+                            new ArrayRealVector(val, false), new Array2DRowRealMatrix(jac, false));
+                })
+                .parameterValidator(p -> {
+                    RealVector q = p.copy();
+                    for (int j = 0; j < q.getDimension(); j++) {
+                        q.setEntry(j, Math.max(-LOG_LIMIT, Math.min(LOG_LIMIT, q.getEntry(j))));
+                    }
+                    return q;
+                })
+                .maxEvaluations(20_000)
+                .maxIterations(5_000)
+                .build();
+        LeastSquaresOptimizer.Optimum opt;
+        try {
+            opt = new LevenbergMarquardtOptimizer().optimize(problem);
+        } catch (MathIllegalStateException e) {
+            throw new BadInputException("cannot calibrate: the " + obs.get(0).metric().label
+                    + " fit did not converge on " + obs.size() + " values (" + e.getMessage() + ")");
+        }
+        double[] out = start.clone();
+        for (int j = 0; j < idx.length; j++) {
+            out[idx[j]] = Math.exp(opt.getPoint().getEntry(j));
+        }
+        return out;
+    }
+
     /**
      * Chooses which of {@code candidates} the values can set and fits them with Levenberg-Marquardt;
      * the others keep their start value, with a note saying why.
@@ -382,7 +514,7 @@ public final class Calibrator {
         double[] share = new double[start.length];
         double[] grad = new double[start.length];
         for (Obs o : obs) {
-            double p = predictWithGradient(o, start, latencyFit || overheadFitted, grad);
+            double p = predictWithGradient(o, start, latencyFit || overheadFitted, grad, latencyFit ? SOFT_NORM : 0);
             if (p > 0) {
                 for (int j = 0; j < grad.length; j++) {
                     share[j] += Math.abs(grad[j]) / p;
@@ -418,59 +550,38 @@ public final class Calibrator {
         double[] values = start.clone();
         if (!usable.isEmpty()) {
             int[] idx = usable.stream().mapToInt(Factor::ordinal).toArray();
-            double[] target = new double[obs.size()];
-            for (int i = 0; i < target.length; i++) {
-                target[i] = Math.log(obs.get(i).measured());
-            }
-            double[] theta0 = new double[idx.length];
-            for (int j = 0; j < idx.length; j++) {
-                theta0[j] = Math.log(start[idx[j]]);
-            }
             boolean ovhOn = latencyFit || overheadFitted;
-            LeastSquaresProblem problem = new LeastSquaresBuilder()
-                    .start(theta0)
-                    .target(target)
-                    .weight(new DiagonalMatrix(weights(obs)))
-                    .model(point -> {
-                        double[] f = start.clone();
-                        for (int j = 0; j < idx.length; j++) {
-                            f[idx[j]] = Math.exp(point.getEntry(j));
-                        }
-                        double[] val = new double[obs.size()];
-                        double[][] jac = new double[obs.size()][idx.length];
-                        double[] g = new double[f.length];
-                        for (int i = 0; i < val.length; i++) {
-                            double p = predictWithGradient(obs.get(i), f, ovhOn, g);
-                            // A prediction of zero cannot be compared on a log scale: hold it at a tiny time.
-                            double safe = Math.max(p, 1e-30);
-                            val[i] = Math.log(safe);
-                            for (int j = 0; j < idx.length; j++) {
-                                jac[i][j] = g[idx[j]] / safe;
-                            }
-                        }
-                        return new Pair<RealVector, org.hipparchus.linear.RealMatrix>(
-                                new ArrayRealVector(val, false), new Array2DRowRealMatrix(jac, false));
-                    })
-                    .parameterValidator(p -> {
-                        RealVector q = p.copy();
-                        for (int j = 0; j < q.getDimension(); j++) {
-                            q.setEntry(j, Math.max(-LOG_LIMIT, Math.min(LOG_LIMIT, q.getEntry(j))));
-                        }
-                        return q;
-                    })
-                    .maxEvaluations(20_000)
-                    .maxIterations(5_000)
-                    .build();
-            LeastSquaresOptimizer.Optimum opt;
-            try {
-                opt = new LevenbergMarquardtOptimizer().optimize(problem);
-            } catch (MathIllegalStateException e) {
-                throw new BadInputException("cannot calibrate: the " + obs.get(0).metric().label
-                        + " fit did not converge on " + obs.size() + " values (" + e.getMessage() + ")");
+            // The estimator's maximum of compute, SRAM and DRAM time makes the fit piecewise: a factor has no
+            // pull on a layer while another bound hides it, so a fit started at the profile can stall where a
+            // slow class of layers looks memory-bound at the profile's figures. So the fit also runs in two
+            // stages: first with the maximum smoothed into a 4-norm, where each bound's share of a layer's
+            // time pulls on its factor, in proportion to how close it is to limiting; then with the true
+            // maximum from there. The stage-free fit and the two-stage one are compared, and the one that
+            // leaves the smaller error is kept.
+            double[] plain = levenbergMarquardt(obs, idx, start, ovhOn, 0, 0);
+            if (latencyFit) {
+                double[] staged = levenbergMarquardt(obs, idx, levenbergMarquardt(obs, idx, start, ovhOn, SOFT_NORM, 0),
+                        ovhOn, 0, 0);
+                if (dataCost(obs, staged, ovhOn) < dataCost(obs, plain, ovhOn)) {
+                    plain = staged;
+                }
             }
-            RealVector theta = opt.getPoint();
+            // Then the profile's own figures join as a prior: each ratio factor is held toward 1 with a weight
+            // of the fit's residual variance over the prior's (a factor of e either way is one standard
+            // deviation). Values that pin a factor outweigh it, and with exact values it vanishes; where the
+            // values cannot tell two explanations apart (a slow layer that is both compute- and memory-heavy),
+            // it keeps the one that moves the profile least.
+            double dof = Math.max(1, Arrays.stream(weights(obs)).sum() - idx.length);
+            double lambda = dataCost(obs, plain, ovhOn) / dof / (PRIOR_SIGMA * PRIOR_SIGMA);
+            double[] theta = plain;
+            if (lambda > 1e-12) {
+                double[] fromStart = levenbergMarquardt(obs, idx, start, ovhOn, 0, lambda);
+                double[] fromPlain = levenbergMarquardt(obs, idx, plain, ovhOn, 0, lambda);
+                theta = dataCost(obs, fromStart, ovhOn) + lambda * priorCost(idx, fromStart)
+                        <= dataCost(obs, fromPlain, ovhOn) + lambda * priorCost(idx, fromPlain) ? fromStart : fromPlain;
+            }
             for (int j = 0; j < idx.length; j++) {
-                values[idx[j]] = Math.exp(theta.getEntry(j));
+                values[idx[j]] = theta[idx[j]];
                 fitted[idx[j]] = true;
             }
         }

@@ -114,7 +114,8 @@ public final class Estimator {
         for (TensorDef t : sramWeights) {
             sramWeightBytes += s.storedBytes(t);
         }
-        Placement.Result p = Placement.place(s, est, weightBytes, sramWeightBytes, device.sram(), assumptions);
+        Placement.Result p = Placement.place(s, est, weightBytes, sramWeightBytes, device.sram(),
+                !device.caches().isEmpty(), assumptions);
         double[] sum = new double[9]; // the total energy, summed part by part as Energy.plus does
         double latency = 0;
         long dramPerFrame = 0;

@@ -119,9 +119,18 @@ final class Placement {
         }
     }
 
+    /**
+     * Places one frame's data.
+     *
+     * @param cache true when the on-chip level is a processor's last cache rather than a managed SRAM: a
+     *              cache keeps what was touched last, not what will be reused, so the weights stay in it
+     *              from one frame to the next only when everything a frame touches (the weights and every
+     *              activation buffer it writes) fits; an SRAM needs room for the weights and the peak of
+     *              live activations only
+     */
     static Result place(Schedule s, NodeEstimate[] est, long[] weightBytes, long totalWeights, Memory sram,
-                        List<String> assumptions) {
-        return new Sweep(s, est, weightBytes, totalWeights, sram).run(assumptions);
+                        boolean cache, List<String> assumptions) {
+        return new Sweep(s, est, weightBytes, totalWeights, sram, cache).run(assumptions);
     }
 
     /**
@@ -135,6 +144,7 @@ final class Placement {
         final long[] weightBytes;
         final long totalWeights;
         final Memory sram;
+        final boolean cache;
         final List<NodeWork> works;
         final boolean[] fusedIn;
         final int n;
@@ -149,8 +159,9 @@ final class Placement {
         final List<Buffer> active = new ArrayList<>();
         final List<Buffer> touched = new ArrayList<>(8);
 
-        Sweep(Schedule s, NodeEstimate[] est, long[] weightBytes, long totalWeights, Memory sram) {
+        Sweep(Schedule s, NodeEstimate[] est, long[] weightBytes, long totalWeights, Memory sram, boolean cache) {
             this.s = s;
+            this.cache = cache;
             this.est = est;
             this.weightBytes = weightBytes;
             this.totalWeights = totalWeights;
@@ -182,10 +193,23 @@ final class Placement {
             }
             p.activationPeak = peak;
             cap = sram.capacityBytes();
-            p.resident = totalWeights + peak <= cap;
-            if (!p.resident) {
-                assumptions.add("weights (" + totalWeights + " B) and peak activations (" + peak + " B) exceed the SRAM ("
-                        + cap + " B): each layer streams its weights from DRAM every frame");
+            if (cache) {
+                long written = 0;
+                for (Buffer b : buffers) {
+                    written += b.start < 0 ? 0 : b.bytes;
+                }
+                p.resident = totalWeights + written <= cap;
+                if (!p.resident) {
+                    assumptions.add("weights (" + totalWeights + " B) and the activations a frame writes (" + written
+                            + " B) exceed the last cache '" + sram.id() + "' (" + cap
+                            + " B): each layer reads its weights from DRAM every frame");
+                }
+            } else {
+                p.resident = totalWeights + peak <= cap;
+                if (!p.resident) {
+                    assumptions.add("weights (" + totalWeights + " B) and peak activations (" + peak + " B) exceed the SRAM ("
+                            + cap + " B): each layer streams its weights from DRAM every frame");
+                }
             }
             // Sweep the schedule with the live set; evict idle buffers (furthest next use first) on overflow.
             adjust = new long[n + 2];

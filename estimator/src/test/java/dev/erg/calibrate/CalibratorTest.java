@@ -137,7 +137,7 @@ class CalibratorTest {
             }
         }
         // With as many factors as values, the fit goes through every value.
-        assertTrue(c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.ALL).worst() < 1e-6);
+        assertTrue(c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.ALL).worst() < 1e-6, c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.ALL) + " " + c.factors());
         assertTrue(c.errorBefore(Factor.Metric.LATENCY, Calibration.Scope.ALL).median() > 0.5);
     }
 

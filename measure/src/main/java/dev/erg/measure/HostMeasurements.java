@@ -14,13 +14,26 @@ import java.util.TreeMap;
  * @param logicalCores            logical cores the JVM sees
  * @param threads                 intra-op threads the benchmarks ran with
  * @param peakMacsPerSecond       fp32 multiply-accumulates per second in the MatMul
- * @param memoryBytesPerSecond    bytes per second the Add moved (two operands read, one result written)
+ * @param memoryBytesPerSecond    bytes per second an Add far larger than the caches moved (two operands read,
+ *                                one result written)
+ * @param cacheBytesPerSecond     per cache level (1, 2, ...), bytes per second an Add that fits in it moved
  * @param sources                 per figure's key, how and when it was measured
  */
 public record HostMeasurements(String processor, int logicalCores, int threads, double peakMacsPerSecond,
-                               double memoryBytesPerSecond, Map<String, String> sources) {
+                               double memoryBytesPerSecond, Map<Integer, Double> cacheBytesPerSecond,
+                               Map<String, String> sources) {
     public static final String PEAK_KEY = "peak-macs-per-second-fp32";
     public static final String BANDWIDTH_KEY = "memory-gbytes-per-second";
+
+    public HostMeasurements {
+        cacheBytesPerSecond = Map.copyOf(cacheBytesPerSecond);
+        sources = Map.copyOf(sources);
+    }
+
+    /** The key of a cache level's bandwidth figure. */
+    public static String cacheKey(int level) {
+        return "l" + level + "-gbytes-per-second";
+    }
 
     /** The figures as YAML, under {@code host-measurements}, keys sorted. */
     public String toYaml() {
@@ -33,6 +46,10 @@ public record HostMeasurements(String processor, int logicalCores, int threads, 
         b.append("  ").append(PEAK_KEY).append(": ").append(String.format(Locale.ROOT, "%.4g", peakMacsPerSecond)).append('\n');
         b.append("  ").append(BANDWIDTH_KEY).append(": ")
                 .append(String.format(Locale.ROOT, "%.4g", memoryBytesPerSecond / 1e9)).append('\n');
+        for (Map.Entry<Integer, Double> c : new TreeMap<>(cacheBytesPerSecond).entrySet()) {
+            b.append("  ").append(cacheKey(c.getKey())).append(": ")
+                    .append(String.format(Locale.ROOT, "%.4g", c.getValue() / 1e9)).append('\n');
+        }
         b.append("  sources:\n");
         for (Map.Entry<String, String> e : new TreeMap<>(sources).entrySet()) {
             b.append("    ").append(e.getKey()).append(": ").append(quote(e.getValue())).append('\n');

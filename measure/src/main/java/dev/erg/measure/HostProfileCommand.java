@@ -18,8 +18,8 @@ import picocli.CommandLine.Option;
  * source. No onnxruntime type appears in this class.
  */
 @Command(name = "host-profile", mixinStandardHelpOptions = true,
-        description = "Measures this machine's peak MAC rate (a large MatMul) and memory bandwidth (a large Add)"
-                + " in onnxruntime and writes a kind: cpu device profile of it, each number with how and when it was"
+        description = "Measures this machine's peak MAC rate (large MatMuls) and the bandwidth of its caches and"
+                + " memory (chains of Adds) in onnxruntime and writes a kind: cpu device profile of it, each number with how and when it was"
                 + " measured.")
 public final class HostProfileCommand implements Callable<Integer> {
     @Option(names = "--out", paramLabel = "FILE", description = "Where to write the profile (YAML); printed when absent.")
@@ -36,12 +36,12 @@ public final class HostProfileCommand implements Callable<Integer> {
             description = "Untimed runs first (default: ${DEFAULT-VALUE}).")
     int warmups;
 
-    @Option(names = "--matmul-side", paramLabel = "N", defaultValue = "1024",
-            description = "Side of the square MatMul (default: ${DEFAULT-VALUE}).")
-    int side;
+    @Option(names = "--matmul-side", paramLabel = "N", split = ",", defaultValue = "768,1000,1536",
+            description = "Sides of the square MatMuls; the peak is the best of them (default: ${DEFAULT-VALUE}).")
+    int[] sides;
 
     @Option(names = "--add-elements", paramLabel = "N", defaultValue = "16777216",
-            description = "Elements of each Add operand (default: ${DEFAULT-VALUE}, 64 MiB of fp32).")
+            description = "Elements of each Add operand of the DRAM measurement (default: ${DEFAULT-VALUE}, 64 MiB of fp32).")
     int elements;
 
     @Option(names = "--clock-mhz", paramLabel = "MHZ",
@@ -60,7 +60,9 @@ public final class HostProfileCommand implements Callable<Integer> {
         check(threads >= 1 && threads <= 1024, "--threads must be from 1 to 1024, not " + threads);
         check(runs >= 1 && runs <= 10_000, "--runs must be from 1 to 10000, not " + runs);
         check(warmups >= 0 && warmups <= 10_000, "--warmup must be from 0 to 10000, not " + warmups);
-        check(side >= 16 && side <= 8192, "--matmul-side must be from 16 to 8192, not " + side);
+        for (int side : sides) {
+            check(side >= 16 && side <= 8192, "--matmul-side must be from 16 to 8192, not " + side);
+        }
         check(elements >= 1024 && elements <= (1 << 28), "--add-elements must be from 1024 to 268435456, not " + elements);
         check(clockMhz == null || (clockMhz > 0 && clockMhz < 100_000), "--clock-mhz must be above 0, not " + clockMhz);
         double clock = clockMhz != null ? clockMhz : HostProfileWriter.clockMhz();
@@ -68,12 +70,16 @@ public final class HostProfileCommand implements Callable<Integer> {
             throw new BadInputException("host-profile: the system does not tell the core clock; give it with"
                     + " --clock-mhz (or write the figures only with --figures-only)");
         }
-        HostMeasurements m = HostBench.run(threads, warmups, runs, side, elements);
+        java.util.List<HostProfileWriter.Cache> caches = HostProfileWriter.caches();
+        HostMeasurements m = HostBench.run(threads, warmups, runs, sides, elements, caches);
         String text = figuresOnly ? m.toYaml() : HostProfileWriter.profile(m, clock, clockMhz != null
-                ? "given with --clock-mhz" : "'cpu MHz' of /proc/cpuinfo when measured", HostProfileWriter.caches());
+                ? "given with --clock-mhz" : "'cpu MHz' of /proc/cpuinfo when measured", caches);
         PrintWriter pw = spec.commandLine().getOut();
-        pw.printf(Locale.ROOT, "peak %.2f GMAC/s (fp32 MatMul), memory %.2f GB/s (fp32 Add), %d %s on %s%n",
-                m.peakMacsPerSecond() / 1e9, m.memoryBytesPerSecond() / 1e9, threads,
+        StringBuilder cacheFigures = new StringBuilder();
+        new java.util.TreeMap<>(m.cacheBytesPerSecond()).forEach((level, bps) -> cacheFigures.append(String.format(
+                Locale.ROOT, ", L%d %.2f GB/s", level, bps / 1e9)));
+        pw.printf(Locale.ROOT, "peak %.2f GMAC/s (fp32 MatMul), memory %.2f GB/s (fp32 Add)%s, %d %s on %s%n",
+                m.peakMacsPerSecond() / 1e9, m.memoryBytesPerSecond() / 1e9, cacheFigures, threads,
                 threads == 1 ? "thread" : "threads", m.processor());
         if (out == null) {
             pw.print(text);

@@ -11,7 +11,7 @@ import java.util.Locale;
  * Turns what {@code erg host-profile} measured into a loadable {@code kind: cpu} device profile
  * (docs/profiles.md): one engine with {@code cores} = the threads the benchmarks ran with and
  * {@code macs-per-cycle-per-core} = peak MAC/s / (clock x cores), the data and unified cache levels the
- * system lists, and DRAM at the measured bandwidth. No energies (nothing here measures them), and a
+ * system lists with the bandwidth measured in each, and DRAM at the measured bandwidth. No energies (nothing here measures them), and a
  * {@code sources} entry for each number.
  */
 final class HostProfileWriter {
@@ -41,19 +41,39 @@ final class HostProfileWriter {
                 m.sources().get(HostMeasurements.PEAK_KEY)))).append('\n');
         b.append("memories:\n");
         int i = 0;
-        for (Cache c : caches) {
+        for (int k = 0; k < caches.size(); k++) {
+            Cache c = caches.get(k);
             long bytes = c.shared() ? c.bytes() : c.bytes() * m.threads();
             b.append("  - id: l").append(c.level()).append("\n    level: cache\n    capacity-bytes: ").append(bytes)
                     .append('\n');
             src.append("  memories[").append(i).append("].capacity-bytes: ").append(quote("level " + c.level()
                     + " data cache, " + c.bytes() + " bytes" + (c.shared() ? ", shared"
                     : " per core x " + m.threads()) + " (from the system's cache list)")).append('\n');
+            // A nearer cache is never slower than a farther one: when a level reads slower than the next (its
+            // Adds are so short that the runtime's dispatch of each one dominates), it takes the next level's figure.
+            int from = k;
+            while (from + 1 < caches.size() && rate(m, caches.get(from + 1)) > rate(m, caches.get(from))) {
+                from++;
+            }
+            double bps = rate(m, caches.get(from));
+            if (bps > 0) {
+                b.append("    bytes-per-cycle: ").append(num(bps / (clockMhz * 1e6))).append('\n');
+                String how = m.sources().get(HostMeasurements.cacheKey(caches.get(from).level()));
+                src.append("  memories[").append(i).append("].bytes-per-cycle: ").append(quote(String.format(Locale.ROOT,
+                        "%.4g B/s / %s MHz; %s%s", bps, num(clockMhz), from == k ? "" : "the level " + caches.get(from).level()
+                                + " figure, since the level " + c.level() + " one read lower (" + String.format(Locale.ROOT,
+                                "%.4g B/s", rate(m, c)) + "), which a nearer cache cannot be: ", how))).append('\n');
+            }
             i++;
         }
         b.append("  - id: dram\n    gbytes-per-second: ").append(num(m.memoryBytesPerSecond() / 1e9)).append('\n');
         src.append("  memories[").append(i).append("].gbytes-per-second: ")
                 .append(quote(m.sources().get(HostMeasurements.BANDWIDTH_KEY))).append('\n');
         return b.append("sources:\n").append(src).toString();
+    }
+
+    private static double rate(HostMeasurements m, Cache c) {
+        return m.cacheBytesPerSecond().getOrDefault(c.level(), 0.0);
     }
 
     /** The clock from /proc/cpuinfo ("cpu MHz"), or NaN. */

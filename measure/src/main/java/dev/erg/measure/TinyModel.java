@@ -46,6 +46,43 @@ final class TinyModel {
         });
     }
 
+    /**
+     * The bytes of a model of {@code k} fp32 Adds in a chain over vectors of {@code n} elements, at opset
+     * 13: {@code y1 = a + b}, {@code y(i) = y(i-1) + b}, output {@code y(k)}. Each Add reads two operands
+     * and writes one result; the runtime reuses the buffers of finished links, so the working set stays
+     * at about four vectors whatever {@code k} is.
+     */
+    static byte[] addChain(long n, int k) {
+        long[] dims = {n};
+        byte[] graph = msg(o -> {
+            for (int i = 1; i <= k; i++) {
+                String in = i == 1 ? "a" : "y" + (i - 1);
+                String out = i == k ? "y" : "y" + i;
+                String name = "add" + i;
+                o.writeByteArray(1, msg(x -> {
+                    x.writeString(1, in);
+                    x.writeString(1, "b");
+                    x.writeString(2, out);
+                    x.writeString(3, name);
+                    x.writeString(4, "Add");
+                }));
+            }
+            o.writeString(2, "host-bench");
+            o.writeByteArray(11, valueInfo("a", dims));
+            o.writeByteArray(11, valueInfo("b", dims));
+            o.writeByteArray(12, valueInfo("y", dims));
+        });
+        byte[] opset = msg(o -> {
+            o.writeString(1, "");
+            o.writeInt64(2, 13);
+        });
+        return msg(o -> {
+            o.writeInt64(1, 7);
+            o.writeByteArray(7, graph);
+            o.writeByteArray(8, opset);
+        });
+    }
+
     private static byte[] valueInfo(String name, long[] dims) {
         byte[] shape = msg(o -> {
             for (long d : dims) {

@@ -35,6 +35,20 @@ class MeasureModuleTest {
         }
     }
 
+    @Test
+    void addChainComputesTheChainInOnnxruntime() throws OrtException {
+        // onnxruntime runs the chain of 5 Adds over 4 elements: y = a + 5 b (the ONNX Add definition, link by link).
+        byte[] bytes = TinyModel.addChain(4, 5);
+        OrtEnvironment env = Host.runtime();
+        try (OrtSession.SessionOptions o = new OrtSession.SessionOptions(); OrtSession s = env.createSession(bytes, o);
+             ai.onnxruntime.OnnxTensor a = ai.onnxruntime.OnnxTensor.createTensor(env, new float[] {1, 2, 3, 4});
+             ai.onnxruntime.OnnxTensor b = ai.onnxruntime.OnnxTensor.createTensor(env, new float[] {0.5f, 1, 0, -1});
+             OrtSession.Result r = s.run(Map.of("a", a, "b", b))) {
+            float[] y = (float[]) r.get(0).getValue();
+            assertEquals(List.of(3.5f, 7f, 3f, -1f), List.of(y[0], y[1], y[2], y[3]));
+        }
+    }
+
     private static Long[] box(long[] v) {
         Long[] b = new Long[v.length];
         for (int i = 0; i < v.length; i++) {
@@ -65,11 +79,12 @@ class MeasureModuleTest {
 
     @Test
     void hostFiguresAreYamlWithASourcePerFigure() throws IOException {
-        HostMeasurements m = new HostMeasurements("Example CPU", 2, 1, 2.5e10, 9.6e9, Map.of(
+        HostMeasurements m = new HostMeasurements("Example CPU", 2, 1, 2.5e10, 9.6e9, Map.of(2, 7.5e10), Map.of(
                 HostMeasurements.PEAK_KEY, "a MatMul", HostMeasurements.BANDWIDTH_KEY, "an \"Add\""));
         JsonNode y = new ObjectMapper(new YAMLFactory()).readTree(m.toYaml()).get("host-measurements");
         assertEquals(2.5e10, y.get(HostMeasurements.PEAK_KEY).asDouble());
         assertEquals(9.6, y.get(HostMeasurements.BANDWIDTH_KEY).asDouble());
+        assertEquals(75, y.get("l2-gbytes-per-second").asDouble());
         assertEquals("an \"Add\"", y.get("sources").get(HostMeasurements.BANDWIDTH_KEY).asText());
         assertEquals("a MatMul", y.get("sources").get(HostMeasurements.PEAK_KEY).asText());
     }
@@ -82,8 +97,11 @@ class MeasureModuleTest {
     @Test
     void hostProfileIsALoadableCpuProfileWithASourcePerNumber(@org.junit.jupiter.api.io.TempDir java.nio.file.Path dir)
             throws IOException {
-        HostMeasurements m = new HostMeasurements("Example CPU", 2, 1, 23.4e9, 9.6e9, Map.of(
-                HostMeasurements.PEAK_KEY, "a MatMul", HostMeasurements.BANDWIDTH_KEY, "an Add"));
+        // Cache figures as a chain of Adds might read them: the L1 one lower than the L2 one (dispatch-bound).
+        HostMeasurements m = new HostMeasurements("Example CPU", 2, 1, 23.4e9, 9.6e9,
+                Map.of(1, 3.0e10, 2, 7.8e10, 3, 5.2e10), Map.of(
+                HostMeasurements.PEAK_KEY, "a MatMul", HostMeasurements.BANDWIDTH_KEY, "an Add",
+                HostMeasurements.cacheKey(2), "an L2 chain", HostMeasurements.cacheKey(3), "an L3 chain"));
         String text = HostProfileWriter.profile(m, 2600, "given", java.util.List.of(
                 new HostProfileWriter.Cache(1, 32 * 1024, false), new HostProfileWriter.Cache(2, 1024 * 1024, false),
                 new HostProfileWriter.Cache(3, 32L * 1024 * 1024, true)));
@@ -94,9 +112,15 @@ class MeasureModuleTest {
         assertEquals(3, p.caches().size());
         assertEquals(32L * 1024 * 1024, p.caches().get(2).capacityBytes());
         assertEquals(9.6e9, p.dram().bandwidth(p.clockHz()), 1);
+        // bytes per cycle = bytes per second / clock; the L1 takes the L2's figure (a nearer level is never slower)
+        assertEquals(7.8e10, p.caches().get(0).bandwidth(p.clockHz()), 7.8e10 * 1e-3);
+        assertEquals(7.8e10, p.caches().get(1).bandwidth(p.clockHz()), 7.8e10 * 1e-3);
+        assertEquals(5.2e10, p.caches().get(2).bandwidth(p.clockHz()), 5.2e10 * 1e-3);
+        assertTrue(p.sources().get("memories[0].bytes-per-cycle").contains("the level 2 figure"),
+                p.sources().get("memories[0].bytes-per-cycle"));
         assertEquals(false, p.energyKnown());
         for (String key : new String[] {"clock-mhz", "engines[0].cores", "engines[0].macs-per-cycle-per-core.fp32",
-                "memories[0].capacity-bytes", "memories[3].gbytes-per-second"}) {
+                "memories[0].capacity-bytes", "memories[2].bytes-per-cycle", "memories[3].gbytes-per-second"}) {
             assertEquals(true, p.sources().containsKey(key), key + " in " + p.sources());
         }
         assertEquals(1024 * 1024, HostProfileWriter.size("1024K"));
