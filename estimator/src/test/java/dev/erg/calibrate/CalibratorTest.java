@@ -119,6 +119,37 @@ class CalibratorTest {
         assertEquals(Calibrator.latency(fresh, values(truth()), true), c.latencySeconds(fresh), 1e-12);
     }
 
+    /**
+     * A class of layers that the profile's figures show as memory-bound but that really runs far below its
+     * peak (on a processor, depthwise convolutions often do): at the profile's figures its efficiency moves
+     * no prediction, since the maximum of compute and memory time hides it. The smoothed first stage of the
+     * fit still finds it, and the exact stage then recovers it.
+     */
+    @Test
+    void recoversASlowClassThatLooksMemoryBoundAtTheProfilesFigures() throws IOException {
+        List<ModelCosts> models = new ArrayList<>();
+        for (int m = 0; m < 3; m++) {
+            Random r = new Random(40 + m);
+            List<NodeCost> nodes = new ArrayList<>();
+            OpClass[] classes = OpClass.values();
+            for (int i = 0; i < 20; i++) {
+                OpClass c = classes[i % classes.length];
+                double compute = 1e-6 * (5 + 200 * r.nextDouble());
+                // grouped layers: on-chip time twice their compute time at the profile's figures
+                double sram = c == OpClass.GROUPED_CONV ? 2 * compute : compute * 0.3 * r.nextDouble();
+                double dram = i % 3 == 0 ? compute * (2 + 3 * r.nextDouble()) : compute * 0.2 * r.nextDouble();
+                nodes.add(new NodeCost("m" + m + "/n" + i, c, compute, sram, dram, 1e-6, 1, 0, 0, 0));
+            }
+            models.add(new ModelCosts("m" + m + ".onnx", nodes));
+        }
+        MeasurementFile f = MeasurementFile.read(measure(models, true, "hidden.csv"));
+        Calibration c = Calibrator.fit(models, List.of(f), 0.0);
+        // the truth's grouped efficiency 0.09 makes those layers compute-bound: 1/0.09 = 11x their compute time
+        assertEquals(0.09, c.factor(Factor.EFFICIENCY_GROUPED_CONV).value(), 0.09 * 1e-3,
+                c.factors().toString());
+        assertTrue(c.errorAfter(Factor.Metric.LATENCY, Calibration.Scope.ALL).worst() < 1e-5);
+    }
+
     @Test
     void withFewerValuesThanFactorsFitsFewerAndSaysWhich() throws IOException {
         List<ModelCosts> models = List.of(model("a.onnx", 24, 1), model("b.onnx", 17, 2), model("c.onnx", 30, 3));

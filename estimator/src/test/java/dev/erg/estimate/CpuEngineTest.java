@@ -67,6 +67,42 @@ class CpuEngineTest {
                 e.assumptions().toString());
     }
 
+    /**
+     * A cache keeps what was touched last (least recently used out first: common practice, no single
+     * source), not what the next frame will need. Four MatMuls x [1024, 512] x w [512, 512] in fp32 on
+     * preset:host-2core-example (L3 8 MiB): the weights (4 MiB) and the peak of live activations (input and
+     * output of one layer, 4 MiB) fit in the L3 together, but a frame writes 8 MiB of activations besides
+     * its 2 MiB input, so by the next frame the weights have left the cache: each layer reads its 1 MiB of
+     * weights from DRAM.
+     */
+    @Test
+    void aCacheKeepsTheWeightsOnlyWhenAFramesDataFits() {
+        OnnxWriter.Graph g = new OnnxWriter.Graph("chain").input("x0", ElemType.FLOAT, 1024, 512);
+        for (int i = 1; i <= 4; i++) {
+            g.weight("w" + i, ElemType.FLOAT, 512, 512)
+                    .node("MatMul", "mm" + i, List.of("x" + (i - 1), "w" + i), List.of("x" + i));
+        }
+        g.output("x4", ElemType.FLOAT);
+        DeviceEstimate e = Estimator.estimate(Models.analyze(g), DeviceLoader.load("preset:host-2core-example", null));
+        assertEquals(4L << 20, e.activationPeakBytes());
+        assertFalse(e.weightsResident());
+        NodeEstimate mm2 = e.nodes().get(1);
+        assertEquals("mm2", mm2.name());
+        assertEquals(1L << 20, mm2.dramReadBytes());         // its weights, every frame
+        assertTrue(e.assumptions().stream().anyMatch(a -> a.contains("exceed the last cache 'l3'")),
+                e.assumptions().toString());
+        // With two layers, 2 MiB of weights and 6 MiB of activations (the input included) fill the 8 MiB: they stay.
+        OnnxWriter.Graph two = new OnnxWriter.Graph("two").input("x0", ElemType.FLOAT, 1024, 512);
+        for (int i = 1; i <= 2; i++) {
+            two.weight("w" + i, ElemType.FLOAT, 512, 512)
+                    .node("MatMul", "mm" + i, List.of("x" + (i - 1), "w" + i), List.of("x" + i));
+        }
+        two.output("x2", ElemType.FLOAT);
+        DeviceEstimate t = Estimator.estimate(Models.analyze(two), DeviceLoader.load("preset:host-2core-example", null));
+        assertTrue(t.weightsResident());
+        assertEquals(0, t.nodes().get(1).dramReadBytes());
+    }
+
     /** An elementwise node runs on the same cores, at the ops rate: Relu of 64 x 256 fp32 = 16 384 ops / 32. */
     @Test
     void vectorWorkRunsOnTheSameCores() {
