@@ -27,7 +27,11 @@ import org.hipparchus.util.Pair;
  * <p>The fit minimises the sum of squared log ratios of predicted to measured values, so that a
  * layer of 20 us and a model of 20 ms weigh the same, and every factor is fitted as its logarithm,
  * so that it stays positive. The solver is the Levenberg-Marquardt least-squares optimiser of
- * Hipparchus. Latency is fitted first (compute efficiencies, per-layer overhead, DRAM bandwidth),
+ * Hipparchus, in up to three passes: the exact fit; a two-stage fit whose first stage smooths the
+ * roofline's maximum (so that a class hidden behind a memory bound still pulls on its efficiency);
+ * and, from the better of these, a fit that holds each ratio factor toward the profile's value in
+ * proportion to the residual variance (docs/calibration.md, "How the fit works"). Latency is fitted
+ * first (compute efficiencies, per-layer overhead, DRAM bandwidth),
  * then energy (the three destination scales and static power) with the calibrated latencies. A
  * factor that no measured value depends on is kept; with fewer values than factors, only as many
  * factors as there are values are fitted, those that explain the largest share of the prediction.
