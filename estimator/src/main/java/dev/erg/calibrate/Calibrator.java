@@ -588,6 +588,34 @@ public final class Calibrator {
                 values[idx[j]] = theta[idx[j]];
                 fitted[idx[j]] = true;
             }
+            if (latencyFit) {
+                // A bound that limits no measured node at the end moves no prediction: the smoothed stage may
+                // have left its factor anywhere. It goes back to the profile's value (when that leaves every
+                // prediction as it is) and is reported as not fitted.
+                double[] limiting = new double[values.length];
+                for (Obs o : obs) {
+                    predictWithGradient(o, values, ovhOn, grad, 0);
+                    for (int j = 0; j < grad.length; j++) {
+                        limiting[j] += Math.abs(grad[j]);
+                    }
+                }
+                double before = dataCost(obs, values, ovhOn);
+                for (int j : idx) {
+                    Factor f = Factor.values()[j];
+                    if (j == ovh || limiting[j] > 0) {
+                        continue;
+                    }
+                    double kept = values[j];
+                    values[j] = start[j];
+                    if (Math.abs(dataCost(obs, values, ovhOn) - before) <= 1e-12 * Math.max(1, before)) {
+                        fitted[j] = false;
+                        why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
+                                : "no measured node of this class is limited by compute");
+                    } else {
+                        values[j] = kept;
+                    }
+                }
+            }
         }
         if (latencyFit && !fitted[ovh]) {
             // Not fitted: the profile's overhead applies node by node, as the estimator charges it.
