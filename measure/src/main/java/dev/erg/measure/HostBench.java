@@ -32,6 +32,8 @@ import java.util.TreeMap;
 final class HostBench {
     /** Extra links of the long chain of a bandwidth measurement. */
     static final int LINKS = 16;
+    /** How many times more runs (and warm-up runs) a cache measurement makes than the others. */
+    static final int CACHE_RUNS = 20;
     /** Fewest elements per vector of a cache measurement (a smaller Add is all dispatch). */
     static final long MIN_ELEMENTS = 1024;
 
@@ -62,12 +64,16 @@ final class HostBench {
         for (HostProfileWriter.Cache c : caches) {
             long bytes = c.shared() ? c.bytes() : c.bytes() * threads;
             long n = Math.max(MIN_ELEMENTS, bytes / 2 / 16);
-            double[] r = chainRate(env, n, threads, warmups, runs);
+            // A cache-sized run lasts micro- to milliseconds: many more runs steady its median.
+            int cacheRuns = runs * CACHE_RUNS;
+            int cacheWarmups = warmups * CACHE_RUNS;
+            double[] r = chainRate(env, n, threads, cacheWarmups, cacheRuns);
             cacheRates.put(c.level(), r[0]);
             sources.put(HostMeasurements.cacheKey(c.level()), String.format(Locale.ROOT,
                     "fp32 Add chains of %d-element vectors (working set %d KiB, half of the level) in %s: %.0f bytes"
                             + " per Add over %.3f us, from the medians of %d runs of 1 and %d Adds after %d warm-up;"
-                            + " measured %s", n, 16 * n / 1024, runtime, 12.0 * n, r[1], runs, 1 + LINKS, warmups, now()));
+                            + " measured %s", n, 16 * n / 1024, runtime, 12.0 * n, r[1], cacheRuns, 1 + LINKS,
+                    cacheWarmups, now()));
         }
         long e = addElements;
         double[] d = chainRate(env, e, threads, warmups, runs);
