@@ -13,7 +13,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /**
- * {@code erg calibrate MODEL... --device PROFILE --measured FILE... --out CALIBRATED.yaml}: fits the
+ * {@code erg calibrate MODEL... --device PROFILE|preset:ID --measured FILE... --out CALIBRATED.yaml}: fits the
  * profile's correction factors to measurements and writes the calibrated profile (docs/calibration.md).
  */
 @Command(name = "calibrate", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
@@ -24,9 +24,10 @@ final class CalibrateCommand implements Callable<Integer> {
             description = "The measured models (a measurement file names them by file name).")
     List<Path> models = new ArrayList<>();
 
-    @Option(names = "--device", required = true, paramLabel = "FILE",
-            description = "The device profile file to calibrate (.yaml, .yml or .json).")
-    Path device;
+    @Option(names = "--device", required = true, paramLabel = "FILE|preset:ID",
+            description = "The device profile to calibrate: a .yaml or .yml file, or a built-in preset (preset:ID),"
+                    + " whose text the calibrated profile starts with.")
+    String device;
 
     @Option(names = "--measured", required = true, arity = "1..*", paramLabel = "FILE.csv",
             description = "Measurement files (format: docs/calibration.md); repeatable.")

@@ -43,9 +43,15 @@ public final class Calibrator {
     private Calibrator() {
     }
 
-    /** One measured value and the nodes whose prediction it is compared with. */
+    /** A fitted factor whose part of every value it enters falls below this share has been driven out by the fit. */
+    private static final double SWITCHED_OFF = 1e-6;
+
+    /**
+     * One measured value and the nodes whose prediction it is compared with; {@code chipOnly}: an energy
+     * of the chip alone, compared with a prediction without DRAM energy.
+     */
     private record Obs(String model, String node, Metric metric, double measured, List<NodeCost> nodes,
-                       boolean fromPower) {
+                       boolean fromPower, boolean chipOnly) {
     }
 
     /** Factor values, and which ones were fitted. */
@@ -91,7 +97,7 @@ public final class Calibrator {
                     continue;
                 }
                 if (m.latencySeconds() != null && m.latencySeconds() > 0) {
-                    latency.add(new Obs(m.model(), m.node(), Metric.LATENCY, m.latencySeconds(), nodes, false));
+                    latency.add(new Obs(m.model(), m.node(), Metric.LATENCY, m.latencySeconds(), nodes, false, false));
                 }
                 if ((m.energyJoules() != null && m.energyJoules() > 0) || (m.powerWatts() != null && m.powerWatts() > 0)) {
                     energyRows.add(m);
@@ -109,6 +115,12 @@ public final class Calibrator {
         if (zeros > 0) {
             notes.add(zeros + (zeros == 1 ? " measured value is" : " measured values are") + " zero: left out");
         }
+        long chip = energyRows.stream().filter(Measurement::chipOnly).count();
+        if (chip > 0) {
+            notes.add(chip + (chip == 1 ? " energy or power value is" : " energy or power values are")
+                    + " of the chip alone (" + MeasurementFile.CHIP_ENERGY_UJ + ", " + MeasurementFile.CHIP_POWER_MW
+                    + "): compared with estimates without DRAM energy");
+        }
         List<Residual> residuals = new ArrayList<>();
         Fit lat = fitLatency(latency, notes, true);
         List<Obs> energy = energyObs(energyRows, byModel, lat);
@@ -121,7 +133,7 @@ public final class Calibrator {
         for (Obs o : concat(latency, energy)) {
             double b = predict(o, neutral, false);
             double a = predict(o, all.values(), all.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
-            residuals.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a));
+            residuals.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a, o.chipOnly()));
         }
 
         List<Residual> heldOut = null;
@@ -139,7 +151,7 @@ public final class Calibrator {
                 for (Obs o : concat(latency, energy)) {
                     if (o.model().equals(held)) {
                         heldOut.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), predict(o, neutral, false),
-                                predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()])));
+                                predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()]), o.chipOnly()));
                     }
                 }
             }
@@ -171,11 +183,11 @@ public final class Calibrator {
         for (Measurement m : rows) {
             List<NodeCost> nodes = nodesOf(byModel.get(m.model()), m);
             if (m.energyJoules() != null && m.energyJoules() > 0) {
-                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.energyJoules(), nodes, false));
+                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.energyJoules(), nodes, false, m.chipOnly()));
             } else {
                 double t = m.latencySeconds() != null && m.latencySeconds() > 0 ? m.latencySeconds()
                         : latencyOf(nodes, lat.values(), lat.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
-                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.powerWatts() * t, nodes, true));
+                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.powerWatts() * t, nodes, true, m.chipOnly()));
             }
         }
         return out;
@@ -219,9 +231,14 @@ public final class Calibrator {
     }
 
     static double energy(NodeCost n, double[] f, double latencySeconds) {
+        return energy(n, f, latencySeconds, false);
+    }
+
+    /** The calibrated energy of a node; {@code chipOnly} leaves DRAM energy out. */
+    static double energy(NodeCost n, double[] f, double latencySeconds, boolean chipOnly) {
         return f[Factor.ENERGY_SCALE_COMPUTE.ordinal()] * n.computeJoules()
                 + f[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] * n.onChipJoules()
-                + f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules()
+                + (chipOnly ? 0 : f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules())
                 + f[Factor.STATIC_POWER.ordinal()] * latencySeconds;
     }
 
@@ -237,7 +254,7 @@ public final class Calibrator {
         double s = 0;
         for (NodeCost n : o.nodes()) {
             double t = latency(n, f, overheadFitted);
-            s += o.metric() == Metric.LATENCY ? t : energy(n, f, t);
+            s += o.metric() == Metric.LATENCY ? t : energy(n, f, t, o.chipOnly());
         }
         return s;
     }
@@ -278,7 +295,7 @@ public final class Calibrator {
             } else {
                 double ec = f[Factor.ENERGY_SCALE_COMPUTE.ordinal()] * n.computeJoules();
                 double em = f[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] * n.onChipJoules();
-                double ed = f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules();
+                double ed = o.chipOnly() ? 0 : f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules();
                 double es = f[Factor.STATIC_POWER.ordinal()] * t;
                 grad[Factor.ENERGY_SCALE_COMPUTE.ordinal()] += ec;
                 grad[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] += em;
@@ -332,7 +349,7 @@ public final class Calibrator {
             perLayer.sort(null);
             start[Factor.LAYER_OVERHEAD.ordinal()] = 0.05 * perLayer.get(perLayer.size() / 2);
         }
-        return solve(obs, LATENCY, start, true, why, notes, say);
+        return solve(obs, LATENCY, start, start, true, why, notes, say);
     }
 
     private static Fit fitEnergy(List<Obs> obs, Fit lat, double staticPowerWatts, List<String> notes, boolean say) {
@@ -358,7 +375,10 @@ public final class Calibrator {
             p.sort(null);
             start[Factor.STATIC_POWER.ordinal()] = p.isEmpty() ? 1e-3 : 0.1 * p.get(p.size() / 2);
         }
-        Fit e = solve(obs, ENERGY, start, ovh, why, notes, say);
+        // A factor left out of the fit holds the profile's value, not the point the fit would start from.
+        double[] kept = start.clone();
+        kept[Factor.STATIC_POWER.ordinal()] = staticPowerWatts;
+        Fit e = solve(obs, ENERGY, start, kept, ovh, why, notes, say);
         // Keep the latency factors as the latency fit set them.
         for (Factor f : LATENCY) {
             e.fitted()[f.ordinal()] = fitted[f.ordinal()];
@@ -367,10 +387,10 @@ public final class Calibrator {
     }
 
     /**
-     * Chooses which of {@code candidates} the values can set and fits them with Levenberg-Marquardt;
-     * the others keep their start value, with a note saying why.
+     * Chooses which of {@code candidates} the values can set and fits them with Levenberg-Marquardt
+     * from {@code start}; the others hold their {@code kept} value (the profile's), with a note saying why.
      */
-    private static Fit solve(List<Obs> obs, Factor[] candidates, double[] start, boolean overheadFitted,
+    private static Fit solve(List<Obs> obs, Factor[] candidates, double[] start, double[] kept, boolean overheadFitted,
                              Map<Factor, String> why, List<String> notes, boolean say) {
         boolean[] fitted = new boolean[start.length];
         for (int i = 0; i < start.length; i++) {
@@ -396,6 +416,7 @@ public final class Calibrator {
             } else {
                 why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
                         : f.name().startsWith("EFFICIENCY") ? "no measured node of this class is limited by compute"
+                        : f == Factor.ENERGY_SCALE_DRAM ? "no measured energy or power includes DRAM energy"
                         : "no measured value depends on it");
             }
         }
@@ -415,69 +436,113 @@ public final class Calibrator {
             }
             usable = new ArrayList<>(usable.subList(0, obs.size()));
         }
-        double[] values = start.clone();
-        if (!usable.isEmpty()) {
+        double[] values = kept.clone();
+        List<String> off = new ArrayList<>();
+        while (!usable.isEmpty()) {
             int[] idx = usable.stream().mapToInt(Factor::ordinal).toArray();
-            double[] target = new double[obs.size()];
-            for (int i = 0; i < target.length; i++) {
-                target[i] = Math.log(obs.get(i).measured());
+            // The fitted overhead replaces the profile's only when it is among the factors fitted.
+            boolean ovhOn = latencyFit ? usable.contains(Factor.LAYER_OVERHEAD) : overheadFitted;
+            double[] f = optimize(obs, idx, start, kept, ovhOn);
+            // A term added to the predictions (overhead, an energy, static power) that the fit drove toward
+            // zero in every value it enters has no optimum among physical values: these measurements cannot
+            // set it. It keeps the profile's value and the others are fitted again. (An efficiency or a
+            // bandwidth that lifts every node of its own onto another bound is a bound the data do set: kept.)
+            double[] most = new double[f.length];
+            double[] g = new double[f.length];
+            for (Obs o : obs) {
+                double p = predictWithGradient(o, f, ovhOn, g);
+                for (int j = 0; j < g.length; j++) {
+                    most[j] = Math.max(most[j], p > 0 ? Math.abs(g[j]) / p : 0);
+                }
             }
-            double[] theta0 = new double[idx.length];
-            for (int j = 0; j < idx.length; j++) {
-                theta0[j] = Math.log(start[idx[j]]);
+            List<Factor> out = usable.stream().filter(x -> (x.metric == Metric.ENERGY || x == Factor.LAYER_OVERHEAD)
+                    && most[x.ordinal()] < SWITCHED_OFF).toList();
+            if (out.isEmpty()) {
+                for (int j : idx) {
+                    values[j] = f[j];
+                    fitted[j] = true;
+                }
+                break;
             }
-            boolean ovhOn = latencyFit || overheadFitted;
-            LeastSquaresProblem problem = new LeastSquaresBuilder()
-                    .start(theta0)
-                    .target(target)
-                    .weight(new DiagonalMatrix(weights(obs)))
-                    .model(point -> {
-                        double[] f = start.clone();
-                        for (int j = 0; j < idx.length; j++) {
-                            f[idx[j]] = Math.exp(point.getEntry(j));
-                        }
-                        double[] val = new double[obs.size()];
-                        double[][] jac = new double[obs.size()][idx.length];
-                        double[] g = new double[f.length];
-                        for (int i = 0; i < val.length; i++) {
-                            double p = predictWithGradient(obs.get(i), f, ovhOn, g);
-                            // A prediction of zero cannot be compared on a log scale: hold it at a tiny time.
-                            double safe = Math.max(p, 1e-30);
-                            val[i] = Math.log(safe);
-                            for (int j = 0; j < idx.length; j++) {
-                                jac[i][j] = g[idx[j]] / safe;
-                            }
-                        }
-                        return new Pair<RealVector, org.hipparchus.linear.RealMatrix>(
-                                new ArrayRealVector(val, false), new Array2DRowRealMatrix(jac, false));
-                    })
-                    .parameterValidator(p -> {
-                        RealVector q = p.copy();
-                        for (int j = 0; j < q.getDimension(); j++) {
-                            q.setEntry(j, Math.max(-LOG_LIMIT, Math.min(LOG_LIMIT, q.getEntry(j))));
-                        }
-                        return q;
-                    })
-                    .maxEvaluations(20_000)
-                    .maxIterations(5_000)
-                    .build();
-            LeastSquaresOptimizer.Optimum opt;
-            try {
-                opt = new LevenbergMarquardtOptimizer().optimize(problem);
-            } catch (MathIllegalStateException e) {
-                throw new BadInputException("cannot calibrate: the " + obs.get(0).metric().label
-                        + " fit did not converge on " + obs.size() + " values (" + e.getMessage() + ")");
+            for (Factor x : out) {
+                why.put(x, "the fit drove it toward zero in every measured value; these measurements cannot set it");
+                off.add(x.key);
             }
-            RealVector theta = opt.getPoint();
-            for (int j = 0; j < idx.length; j++) {
-                values[idx[j]] = Math.exp(theta.getEntry(j));
-                fitted[idx[j]] = true;
-            }
+            usable = new ArrayList<>(usable);
+            usable.removeAll(out);
+        }
+        if (say && !off.isEmpty()) {
+            notes.add("the " + obs.get(0).metric().label + " fit drove " + String.join(", ", off)
+                    + " toward zero in every measured value, which these measurements cannot tell from a model"
+                    + " without that term; " + (off.size() == 1 ? "it keeps" : "they keep")
+                    + " the profile's value and the other factors were fitted again");
         }
         if (latencyFit && !fitted[ovh]) {
             // Not fitted: the profile's overhead applies node by node, as the estimator charges it.
             values[ovh] = profileOverhead(obs);
         }
         return new Fit(values, fitted, why);
+    }
+
+    /**
+     * Levenberg-Marquardt over the logarithms of the factors {@code idx}, from {@code start}; the others
+     * hold their {@code kept} values.
+     */
+    private static double[] optimize(List<Obs> obs, int[] idx, double[] start, double[] kept, boolean ovhOn) {
+        double[] target = new double[obs.size()];
+        for (int i = 0; i < target.length; i++) {
+            target[i] = Math.log(obs.get(i).measured());
+        }
+        double[] theta0 = new double[idx.length];
+        for (int j = 0; j < idx.length; j++) {
+            theta0[j] = Math.log(start[idx[j]]);
+        }
+        LeastSquaresProblem problem = new LeastSquaresBuilder()
+                .start(theta0)
+                .target(target)
+                .weight(new DiagonalMatrix(weights(obs)))
+                .model(point -> {
+                    double[] f = kept.clone();
+                    for (int j = 0; j < idx.length; j++) {
+                        f[idx[j]] = Math.exp(point.getEntry(j));
+                    }
+                    double[] val = new double[obs.size()];
+                    double[][] jac = new double[obs.size()][idx.length];
+                    double[] g = new double[f.length];
+                    for (int i = 0; i < val.length; i++) {
+                        double p = predictWithGradient(obs.get(i), f, ovhOn, g);
+                        // A prediction of zero cannot be compared on a log scale: hold it at a tiny time.
+                        double safe = Math.max(p, 1e-30);
+                        val[i] = Math.log(safe);
+                        for (int j = 0; j < idx.length; j++) {
+                            jac[i][j] = g[idx[j]] / safe;
+                        }
+                    }
+                    return new Pair<RealVector, org.hipparchus.linear.RealMatrix>(
+                            new ArrayRealVector(val, false), new Array2DRowRealMatrix(jac, false));
+                })
+                .parameterValidator(p -> {
+                    RealVector q = p.copy();
+                    for (int j = 0; j < q.getDimension(); j++) {
+                        q.setEntry(j, Math.max(-LOG_LIMIT, Math.min(LOG_LIMIT, q.getEntry(j))));
+                    }
+                    return q;
+                })
+                .maxEvaluations(20_000)
+                .maxIterations(5_000)
+                .build();
+        LeastSquaresOptimizer.Optimum opt;
+        try {
+            opt = new LevenbergMarquardtOptimizer().optimize(problem);
+        } catch (MathIllegalStateException e) {
+            throw new BadInputException("cannot calibrate: the " + obs.get(0).metric().label
+                    + " fit did not converge on " + obs.size() + " values (" + e.getMessage() + ")");
+        }
+        RealVector theta = opt.getPoint();
+        double[] f = kept.clone();
+        for (int j = 0; j < idx.length; j++) {
+            f[idx[j]] = Math.exp(theta.getEntry(j));
+        }
+        return f;
     }
 }
