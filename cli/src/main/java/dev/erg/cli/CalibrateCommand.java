@@ -5,6 +5,7 @@ import dev.erg.calibrate.CalibrationRun;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Collections;
 import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
@@ -45,7 +46,8 @@ final class CalibrateCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Calibration c = CalibrationRun.run(models, modelOptions.bindings(spec), device, measured, out);
+        Calibration c = CalibrationRun.run(models, Collections.nCopies(models.size(), modelOptions.bindings(spec)),
+                device, measured, out);
         PrintWriter o = spec.commandLine().getOut();
         o.println("calibrated " + device + " on " + models.size() + (models.size() == 1 ? " model" : " models") + ":");
         for (String l : CalibrationRun.summary(c)) {
