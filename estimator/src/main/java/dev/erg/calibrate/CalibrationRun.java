@@ -77,7 +77,8 @@ public final class CalibrationRun {
         DeviceProfile profile = DeviceLoader.load(profileSpec, null).withoutCalibration();
         String text;
         try {
-            text = preset ? DeviceLoader.presetText(profileSpec) : Files.readString(Path.of(profileSpec), StandardCharsets.UTF_8);
+            text = preset ? DeviceLoader.presetText(profileSpec)
+                    : Files.readString(Path.of(profileSpec), StandardCharsets.UTF_8);
         } catch (IOException e) {
             throw new BadInputException(profileSpec + ": cannot read the profile (" + e.getMessage() + ")");
         }
@@ -130,9 +131,9 @@ public final class CalibrationRun {
                 continue;
             }
             ErrorSummary after = c.errorAfter(m, Calibration.Scope.ALL);
-            String line = String.format(Locale.ROOT, "  %s error over %d values: median %s before, %s after; worst %s"
-                    + " before, %s after", m.label, after.count(), pct(before.median()), pct(after.median()),
-                    pct(before.worst()), pct(after.worst()));
+            String line = String.format(Locale.ROOT, "  %s error over %d %s: median %s before, %s after; worst %s"
+                    + " before, %s after", m.label, after.count(), after.count() == 1 ? "value" : "values",
+                    pct(before.median()), pct(after.median()), pct(before.worst()), pct(after.worst()));
             ErrorSummary lo = c.leaveOneModelOut(m, Calibration.Scope.ALL);
             if (lo != null) {
                 line += String.format(Locale.ROOT, "; each model predicted from the others: median %s, worst %s",

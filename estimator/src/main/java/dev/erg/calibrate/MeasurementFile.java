@@ -41,7 +41,8 @@ public final class MeasurementFile {
     public static final String CHIP_ENERGY_UJ = "chip-energy-uj";
     /** Power of the chip alone (its own supply): DRAM power is not in it. */
     public static final String CHIP_POWER_MW = "chip-power-mw";
-    private static final List<String> MEASURED = List.of(LATENCY_MS, ENERGY_UJ, POWER_MW, CHIP_ENERGY_UJ, CHIP_POWER_MW);
+    private static final List<String> MEASURED =
+            List.of(LATENCY_MS, ENERGY_UJ, POWER_MW, CHIP_ENERGY_UJ, CHIP_POWER_MW);
 
     /** Larger files are refused rather than read into memory. */
     static final long MAX_BYTES = 64L << 20;
@@ -156,7 +157,8 @@ public final class MeasurementFile {
             Double chipPw = number(file, lineNo, CHIP_POWER_MW, columns, cells, 1e-3);
             boolean chip = chipEn != null || chipPw != null;
             if (chip && (en != null || pw != null)) {
-                throw new BadInputException(file + ":" + lineNo + ": the row gives both " + (en != null ? ENERGY_UJ : POWER_MW)
+                throw new BadInputException(file + ":" + lineNo + ": the row gives both "
+                        + (en != null ? ENERGY_UJ : POWER_MW)
                         + " (DRAM included) and " + (chipEn != null ? CHIP_ENERGY_UJ : CHIP_POWER_MW)
                         + " (the chip alone); give one of the two kinds per row");
             }
