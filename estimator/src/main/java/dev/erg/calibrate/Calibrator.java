@@ -30,7 +30,10 @@ import org.hipparchus.util.Pair;
  * Hipparchus. Latency is fitted first (compute efficiencies, per-layer overhead, DRAM bandwidth),
  * then energy (the three destination scales and static power) with the calibrated latencies. A
  * factor that no measured value depends on is kept; with fewer values than factors, only as many
- * factors as there are values are fitted, those that explain the largest share of the prediction.
+ * factors as there are values are fitted, those that explain the largest share of the prediction. A
+ * term (overhead, an energy scale, static power) that the fit drives toward zero in every value is
+ * kept at the profile's value and the others are fitted again. Energy of the chip alone is compared
+ * with predictions without DRAM energy.
  */
 public final class Calibrator {
     private static final Factor[] LATENCY = {Factor.EFFICIENCY_DENSE_CONV, Factor.EFFICIENCY_GROUPED_CONV,
