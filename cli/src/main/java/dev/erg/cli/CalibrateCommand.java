@@ -5,6 +5,7 @@ import dev.erg.calibrate.CalibrationRun;
 import java.io.PrintWriter;
 import java.nio.file.Path;
 import java.util.ArrayList;
+import java.util.Collections;
 import java.util.List;
 import java.util.concurrent.Callable;
 import picocli.CommandLine;
@@ -13,7 +14,7 @@ import picocli.CommandLine.Option;
 import picocli.CommandLine.Parameters;
 
 /**
- * {@code erg calibrate MODEL... --device PROFILE --measured FILE... --out CALIBRATED.yaml}: fits the
+ * {@code erg calibrate MODEL... --device PROFILE|preset:ID --measured FILE... --out CALIBRATED.yaml}: fits the
  * profile's correction factors to measurements and writes the calibrated profile (docs/calibration.md).
  */
 @Command(name = "calibrate", mixinStandardHelpOptions = true, versionProvider = Main.Version.class,
@@ -24,9 +25,10 @@ final class CalibrateCommand implements Callable<Integer> {
             description = "The measured models (a measurement file names them by file name).")
     List<Path> models = new ArrayList<>();
 
-    @Option(names = "--device", required = true, paramLabel = "FILE",
-            description = "The device profile file to calibrate (.yaml, .yml or .json).")
-    Path device;
+    @Option(names = "--device", required = true, paramLabel = "FILE|preset:ID",
+            description = "The device profile to calibrate: a .yaml or .yml file, or a built-in preset (preset:ID),"
+                    + " whose text the calibrated profile starts with.")
+    String device;
 
     @Option(names = "--measured", required = true, arity = "1..*", paramLabel = "FILE.csv",
             description = "Measurement files (format: docs/calibration.md); repeatable.")
@@ -44,7 +46,8 @@ final class CalibrateCommand implements Callable<Integer> {
 
     @Override
     public Integer call() {
-        Calibration c = CalibrationRun.run(models, modelOptions.bindings(spec), device, measured, out);
+        Calibration c = CalibrationRun.run(models, Collections.nCopies(models.size(), modelOptions.bindings(spec)),
+                device, measured, out);
         PrintWriter o = spec.commandLine().getOut();
         o.println("calibrated " + device + " on " + models.size() + (models.size() == 1 ? " model" : " models") + ":");
         for (String l : CalibrationRun.summary(c)) {

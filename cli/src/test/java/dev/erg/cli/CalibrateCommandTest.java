@@ -100,4 +100,26 @@ class CalibrateCommandTest {
         assertEquals(1, zero.errLines().size(), zero.err);
         assertTrue(zero.err.contains("every measured value"), zero.err);
     }
+
+    @Test
+    void aPresetIsCalibratedFromItsPackagedText() throws Exception {
+        Path[] m = models();
+        Path out = dir.resolve("npu.calibrated.yaml");
+        CliRun r = CliRun.of("calibrate", m[0].toString(), "--device", "preset:feeder-npu", "--measured",
+                measurements("c16.onnx,conv,0.100\n").toString(), "--out", out.toString());
+        assertEquals(0, r.code, r.toString());
+        String text = Files.readString(out);
+        assertTrue(text.startsWith(DeviceLoader.presetText("preset:feeder-npu")), "the preset's text, comments and all");
+        assertNotNull(DeviceLoader.load(out.toString(), null).calibration());
+        CliRun none = CliRun.of("calibrate", m[0].toString(), "--device", "preset:no-such-chip", "--measured",
+                measurements("c16.onnx,conv,0.100\n").toString(), "--out", out.toString());
+        assertEquals(2, none.code, none.toString());
+        assertEquals(1, none.errLines().size(), none.err);
+        assertTrue(none.err.contains("preset:no-such-chip: no such preset"), none.err);
+        CliRun json = CliRun.of("calibrate", m[0].toString(), "--device", dir.resolve("p.json").toString(),
+                "--measured", measurements("c16.onnx,conv,0.100\n").toString(), "--out", out.toString());
+        assertEquals(2, json.code, json.toString());
+        assertTrue(json.err.contains("a calibration extends a YAML profile (.yaml or .yml) or a preset (preset:ID)"),
+                json.err);
+    }
 }

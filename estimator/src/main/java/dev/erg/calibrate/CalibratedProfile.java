@@ -154,7 +154,7 @@ public final class CalibratedProfile {
             if (r.node() != null) {
                 b.append(", node: ").append(str(r.node()));
             }
-            b.append(", metric: ").append(lat ? "latency-ms" : "energy-uj")
+            b.append(", metric: ").append(lat ? "latency-ms" : r.chipOnly() ? "chip-energy-uj" : "energy-uj")
                     .append(", measured: ").append(num(r.measured() * scale))
                     .append(", estimated: ").append(num(r.after() * scale))
                     .append(", error: ").append(err(r.errorAfter())).append(" }\n");

@@ -48,31 +48,39 @@ public final class CalibrationRun {
     /** As above, with the input bindings of each model. */
     public static Calibration run(List<Path> models, List<InputBindings> bindings, Path profileFile,
                                   List<Path> measured, Path out) {
+        return run(models, bindings, profileFile.toString(), measured, out);
+    }
+
+    /**
+     * As above, with the profile given as {@code erg} names one: a YAML file, or a built-in preset
+     * ({@code preset:ID}), whose packaged text (comments and sources included) the calibrated profile
+     * then starts with.
+     */
+    public static Calibration run(List<Path> models, List<InputBindings> bindings, String profileSpec,
+                                  List<Path> measured, Path out) {
         if (models.isEmpty()) {
             throw new BadInputException("calibrate: no model given");
         }
         if (measured.isEmpty()) {
             throw new BadInputException("calibrate: no measurement file given");
         }
-        if (profileFile.toString().startsWith(DeviceLoader.PRESET_PREFIX)) {
-            throw new BadInputException(profileFile + ": a calibration extends a profile file; write the preset to a"
-                    + " file first and calibrate that file");
-        }
-        String lower = profileFile.toString().toLowerCase(Locale.ROOT);
-        if (!lower.endsWith(".yaml") && !lower.endsWith(".yml")) {
-            throw new BadInputException(profileFile + ": a calibration extends a YAML profile (.yaml or .yml); this"
-                    + " one is not");
+        boolean preset = profileSpec.startsWith(DeviceLoader.PRESET_PREFIX);
+        String lower = profileSpec.toLowerCase(Locale.ROOT);
+        if (!preset && !lower.endsWith(".yaml") && !lower.endsWith(".yml")) {
+            throw new BadInputException(profileSpec + ": a calibration extends a YAML profile (.yaml or .yml) or a"
+                    + " preset (preset:ID); this one is neither");
         }
         String outLower = out.toString().toLowerCase(Locale.ROOT);
         if (!outLower.endsWith(".yaml") && !outLower.endsWith(".yml")) {
             throw new BadInputException(out + ": the calibrated profile is YAML; name it .yaml or .yml");
         }
-        DeviceProfile profile = DeviceLoader.load(profileFile.toString(), null).withoutCalibration();
+        DeviceProfile profile = DeviceLoader.load(profileSpec, null).withoutCalibration();
         String text;
         try {
-            text = Files.readString(profileFile, StandardCharsets.UTF_8);
+            text = preset ? DeviceLoader.presetText(profileSpec)
+                    : Files.readString(Path.of(profileSpec), StandardCharsets.UTF_8);
         } catch (IOException e) {
-            throw new BadInputException(profileFile + ": cannot read the profile (" + e.getMessage() + ")");
+            throw new BadInputException(profileSpec + ": cannot read the profile (" + e.getMessage() + ")");
         }
         Map<String, List<String>> names = new LinkedHashMap<>();
         List<ModelCosts> costs = new ArrayList<>();
@@ -123,9 +131,9 @@ public final class CalibrationRun {
                 continue;
             }
             ErrorSummary after = c.errorAfter(m, Calibration.Scope.ALL);
-            String line = String.format(Locale.ROOT, "  %s error over %d values: median %s before, %s after; worst %s"
-                    + " before, %s after", m.label, after.count(), pct(before.median()), pct(after.median()),
-                    pct(before.worst()), pct(after.worst()));
+            String line = String.format(Locale.ROOT, "  %s error over %d %s: median %s before, %s after; worst %s"
+                    + " before, %s after", m.label, after.count(), after.count() == 1 ? "value" : "values",
+                    pct(before.median()), pct(after.median()), pct(before.worst()), pct(after.worst()));
             ErrorSummary lo = c.leaveOneModelOut(m, Calibration.Scope.ALL);
             if (lo != null) {
                 line += String.format(Locale.ROOT, "; each model predicted from the others: median %s, worst %s",

@@ -27,14 +27,16 @@ import org.hipparchus.util.Pair;
  * <p>The fit minimises the sum of squared log ratios of predicted to measured values, so that a
  * layer of 20 us and a model of 20 ms weigh the same, and every factor is fitted as its logarithm,
  * so that it stays positive. The solver is the Levenberg-Marquardt least-squares optimiser of
- * Hipparchus, in up to three passes: the exact fit; a two-stage fit whose first stage smooths the
- * roofline's maximum (so that a class hidden behind a memory bound still pulls on its efficiency);
- * and, from the better of these, a fit that holds each ratio factor toward the profile's value in
- * proportion to the residual variance (docs/calibration.md, "How the fit works"). Latency is fitted
+ * Hipparchus. A latency fit runs twice and keeps the better result: once with the roofline's exact
+ * maximum, once in two stages whose first smooths that maximum, so that a class hidden behind a memory
+ * bound still pulls on its efficiency (docs/calibration.md, "How the fit works"). Latency is fitted
  * first (compute efficiencies, per-layer overhead, DRAM bandwidth),
  * then energy (the three destination scales and static power) with the calibrated latencies. A
  * factor that no measured value depends on is kept; with fewer values than factors, only as many
- * factors as there are values are fitted, those that explain the largest share of the prediction.
+ * factors as there are values are fitted, those that explain the largest share of the prediction. A
+ * term (overhead, an energy scale, static power) that the fit drives toward zero in every value is
+ * kept at the profile's value and the others are fitted again. Energy of the chip alone is compared
+ * with predictions without DRAM energy.
  */
 public final class Calibrator {
     private static final Factor[] LATENCY = {Factor.EFFICIENCY_DENSE_CONV, Factor.EFFICIENCY_GROUPED_CONV,
@@ -45,18 +47,19 @@ public final class Calibrator {
     private static final double LOG_LIMIT = 60;
     /** The norm that stands for the maximum of a layer's bounds in the first stage of a latency fit. */
     private static final double SOFT_NORM = 4;
-    /**
-     * The prior's spread of a ratio factor, on the log scale: before any measurement, a profile's figure is
-     * taken to be right within a factor of e either way (one standard deviation).
-     */
-    private static final double PRIOR_SIGMA = 1;
 
     private Calibrator() {
     }
 
-    /** One measured value and the nodes whose prediction it is compared with. */
+    /** A fitted factor whose part of every value it enters falls below this share has been driven out by the fit. */
+    private static final double SWITCHED_OFF = 1e-6;
+
+    /**
+     * One measured value and the nodes whose prediction it is compared with; {@code chipOnly}: an energy
+     * of the chip alone, compared with a prediction without DRAM energy.
+     */
     private record Obs(String model, String node, Metric metric, double measured, List<NodeCost> nodes,
-                       boolean fromPower) {
+                       boolean fromPower, boolean chipOnly) {
     }
 
     /** Factor values, and which ones were fitted. */
@@ -102,7 +105,7 @@ public final class Calibrator {
                     continue;
                 }
                 if (m.latencySeconds() != null && m.latencySeconds() > 0) {
-                    latency.add(new Obs(m.model(), m.node(), Metric.LATENCY, m.latencySeconds(), nodes, false));
+                    latency.add(new Obs(m.model(), m.node(), Metric.LATENCY, m.latencySeconds(), nodes, false, false));
                 }
                 if ((m.energyJoules() != null && m.energyJoules() > 0) || (m.powerWatts() != null && m.powerWatts() > 0)) {
                     energyRows.add(m);
@@ -120,6 +123,12 @@ public final class Calibrator {
         if (zeros > 0) {
             notes.add(zeros + (zeros == 1 ? " measured value is" : " measured values are") + " zero: left out");
         }
+        long chip = energyRows.stream().filter(Measurement::chipOnly).count();
+        if (chip > 0) {
+            notes.add(chip + (chip == 1 ? " energy or power value is" : " energy or power values are")
+                    + " of the chip alone (" + MeasurementFile.CHIP_ENERGY_UJ + ", " + MeasurementFile.CHIP_POWER_MW
+                    + "): compared with estimates without DRAM energy");
+        }
         List<Residual> residuals = new ArrayList<>();
         Fit lat = fitLatency(latency, notes, true);
         List<Obs> energy = energyObs(energyRows, byModel, lat);
@@ -132,7 +141,7 @@ public final class Calibrator {
         for (Obs o : concat(latency, energy)) {
             double b = predict(o, neutral, false);
             double a = predict(o, all.values(), all.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
-            residuals.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a));
+            residuals.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), b, a, o.chipOnly()));
         }
 
         List<Residual> heldOut = null;
@@ -150,7 +159,7 @@ public final class Calibrator {
                 for (Obs o : concat(latency, energy)) {
                     if (o.model().equals(held)) {
                         heldOut.add(new Residual(o.model(), o.node(), o.metric(), o.measured(), predict(o, neutral, false),
-                                predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()])));
+                                predict(o, e.values(), e.fitted()[Factor.LAYER_OVERHEAD.ordinal()]), o.chipOnly()));
                     }
                 }
             }
@@ -182,11 +191,11 @@ public final class Calibrator {
         for (Measurement m : rows) {
             List<NodeCost> nodes = nodesOf(byModel.get(m.model()), m);
             if (m.energyJoules() != null && m.energyJoules() > 0) {
-                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.energyJoules(), nodes, false));
+                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.energyJoules(), nodes, false, m.chipOnly()));
             } else {
                 double t = m.latencySeconds() != null && m.latencySeconds() > 0 ? m.latencySeconds()
                         : latencyOf(nodes, lat.values(), lat.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
-                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.powerWatts() * t, nodes, true));
+                out.add(new Obs(m.model(), m.node(), Metric.ENERGY, m.powerWatts() * t, nodes, true, m.chipOnly()));
             }
         }
         return out;
@@ -230,9 +239,14 @@ public final class Calibrator {
     }
 
     static double energy(NodeCost n, double[] f, double latencySeconds) {
+        return energy(n, f, latencySeconds, false);
+    }
+
+    /** The calibrated energy of a node; {@code chipOnly} leaves DRAM energy out. */
+    static double energy(NodeCost n, double[] f, double latencySeconds, boolean chipOnly) {
         return f[Factor.ENERGY_SCALE_COMPUTE.ordinal()] * n.computeJoules()
                 + f[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] * n.onChipJoules()
-                + f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules()
+                + (chipOnly ? 0 : f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules())
                 + f[Factor.STATIC_POWER.ordinal()] * latencySeconds;
     }
 
@@ -248,7 +262,7 @@ public final class Calibrator {
         double s = 0;
         for (NodeCost n : o.nodes()) {
             double t = latency(n, f, overheadFitted);
-            s += o.metric() == Metric.LATENCY ? t : energy(n, f, t);
+            s += o.metric() == Metric.LATENCY ? t : energy(n, f, t, o.chipOnly());
         }
         return s;
     }
@@ -306,7 +320,7 @@ public final class Calibrator {
             } else {
                 double ec = f[Factor.ENERGY_SCALE_COMPUTE.ordinal()] * n.computeJoules();
                 double em = f[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] * n.onChipJoules();
-                double ed = f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules();
+                double ed = o.chipOnly() ? 0 : f[Factor.ENERGY_SCALE_DRAM.ordinal()] * n.dramJoules();
                 double es = f[Factor.STATIC_POWER.ordinal()] * t;
                 grad[Factor.ENERGY_SCALE_COMPUTE.ordinal()] += ec;
                 grad[Factor.ENERGY_SCALE_ON_CHIP.ordinal()] += em;
@@ -360,7 +374,7 @@ public final class Calibrator {
             perLayer.sort(null);
             start[Factor.LAYER_OVERHEAD.ordinal()] = 0.05 * perLayer.get(perLayer.size() / 2);
         }
-        return solve(obs, LATENCY, start, true, why, notes, say);
+        return solve(obs, LATENCY, start, start, true, why, notes, say);
     }
 
     private static Fit fitEnergy(List<Obs> obs, Fit lat, double staticPowerWatts, List<String> notes, boolean say) {
@@ -386,7 +400,10 @@ public final class Calibrator {
             p.sort(null);
             start[Factor.STATIC_POWER.ordinal()] = p.isEmpty() ? 1e-3 : 0.1 * p.get(p.size() / 2);
         }
-        Fit e = solve(obs, ENERGY, start, ovh, why, notes, say);
+        // A factor left out of the fit holds the profile's value, not the point the fit would start from.
+        double[] kept = start.clone();
+        kept[Factor.STATIC_POWER.ordinal()] = staticPowerWatts;
+        Fit e = solve(obs, ENERGY, start, kept, ovh, why, notes, say);
         // Keep the latency factors as the latency fit set them.
         for (Factor f : LATENCY) {
             e.fitted()[f.ordinal()] = fitted[f.ordinal()];
@@ -394,11 +411,168 @@ public final class Calibrator {
         return e;
     }
 
-    /** The weighted sum of squared log ratios a fit leaves. */
-    private static double cost(List<Obs> obs, Fit f) {
-        return dataCost(obs, f.values(), f.fitted()[Factor.LAYER_OVERHEAD.ordinal()]);
+    /**
+     * Chooses which of {@code candidates} the values can set and fits them with Levenberg-Marquardt
+     * from {@code start}; the others hold their {@code kept} value (the profile's), with a note saying why.
+     */
+    private static Fit solve(List<Obs> obs, Factor[] candidates, double[] start, double[] kept, boolean overheadFitted,
+                             Map<Factor, String> why, List<String> notes, boolean say) {
+        boolean[] fitted = new boolean[start.length];
+        for (int i = 0; i < start.length; i++) {
+            fitted[i] = false;
+        }
+        int ovh = Factor.LAYER_OVERHEAD.ordinal();
+        boolean latencyFit = candidates == LATENCY;
+        // Sensitivity: how much of the predictions each factor moves, at the start point; for latency also
+        // with the smoothed maximum, where a bound that does not limit a node at the start still pulls.
+        double[] share = new double[start.length];
+        double[] softShare = new double[start.length];
+        double[] grad = new double[start.length];
+        for (Obs o : obs) {
+            double p = predictWithGradient(o, start, latencyFit || overheadFitted, grad, 0);
+            if (p > 0) {
+                for (int j = 0; j < grad.length; j++) {
+                    share[j] += Math.abs(grad[j]) / p;
+                }
+            }
+            if (latencyFit) {
+                p = predictWithGradient(o, start, true, grad, SOFT_NORM);
+                if (p > 0) {
+                    for (int j = 0; j < grad.length; j++) {
+                        softShare[j] += Math.abs(grad[j]) / p;
+                    }
+                }
+            }
+        }
+        List<Factor> usable = new ArrayList<>();
+        for (Factor f : candidates) {
+            if (share[f.ordinal()] > 1e-9 * obs.size() || softShare[f.ordinal()] > 1e-9 * obs.size()) {
+                usable.add(f);
+            } else {
+                why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
+                        : f.name().startsWith("EFFICIENCY") ? "no measured node of this class is limited by compute"
+                        : f == Factor.ENERGY_SCALE_DRAM ? "no measured energy or power includes DRAM energy"
+                        : "no measured value depends on it");
+            }
+        }
+        // The factors that move the predictions at the start first; those that only the smoothed maximum
+        // reaches after them.
+        usable.sort((a, b) -> share[a.ordinal()] != share[b.ordinal()] ? Double.compare(share[b.ordinal()], share[a.ordinal()])
+                : Double.compare(softShare[b.ordinal()], softShare[a.ordinal()]));
+        if (usable.size() > obs.size()) {
+            List<Factor> dropped = usable.subList(obs.size(), usable.size());
+            List<String> keys = new ArrayList<>();
+            for (Factor f : dropped) {
+                keys.add(f.key);
+                why.put(f, "only " + obs.size() + " " + obs.get(0).metric().label + " value"
+                        + (obs.size() == 1 ? "" : "s") + " for " + usable.size() + " factors");
+            }
+            if (say) {
+                notes.add("only " + obs.size() + " " + obs.get(0).metric().label + (obs.size() == 1 ? " value" : " values")
+                        + " for " + usable.size() + " factors: fitted " + String.join(", ", usable.subList(0, obs.size())
+                        .stream().map(f -> f.key).toList()) + "; kept " + String.join(", ", keys) + " as the profile gives");
+            }
+            usable = new ArrayList<>(usable.subList(0, obs.size()));
+        }
+        double[] values = kept.clone();
+        List<String> off = new ArrayList<>();
+        while (!usable.isEmpty()) {
+            int[] idx = usable.stream().mapToInt(Factor::ordinal).toArray();
+            // The fitted overhead replaces the profile's only when it is among the factors fitted.
+            boolean ovhOn = latencyFit ? usable.contains(Factor.LAYER_OVERHEAD) : overheadFitted;
+            double[] f = passes(obs, idx, start, kept, ovhOn, latencyFit);
+            // A term added to the predictions (overhead, an energy, static power) that the fit drove toward
+            // zero in every value it enters has no optimum among physical values: these measurements cannot
+            // set it. It keeps the profile's value and the others are fitted again. (An efficiency or a
+            // bandwidth that lifts every node of its own onto another bound is a bound the data do set: kept.)
+            double[] most = new double[f.length];
+            double[] g = new double[f.length];
+            for (Obs o : obs) {
+                double p = predictWithGradient(o, f, ovhOn, g, 0);
+                for (int j = 0; j < g.length; j++) {
+                    most[j] = Math.max(most[j], p > 0 ? Math.abs(g[j]) / p : 0);
+                }
+            }
+            List<Factor> out = usable.stream().filter(x -> (x.metric == Metric.ENERGY || x == Factor.LAYER_OVERHEAD)
+                    && most[x.ordinal()] < SWITCHED_OFF).toList();
+            if (out.isEmpty()) {
+                for (int j : idx) {
+                    values[j] = f[j];
+                    fitted[j] = true;
+                }
+                break;
+            }
+            for (Factor x : out) {
+                why.put(x, "the fit drove it toward zero in every measured value; these measurements cannot set it");
+                off.add(x.key);
+            }
+            usable = new ArrayList<>(usable);
+            usable.removeAll(out);
+        }
+        if (latencyFit) {
+            // A bound that limits no measured node at the end moves no prediction: the smoothed stage may
+            // have left its factor anywhere. It goes back to the profile's value (when that leaves every
+            // prediction as it is) and is reported as not fitted.
+            boolean ovhOn = fitted[ovh];
+            double[] limiting = new double[values.length];
+            for (Obs o : obs) {
+                predictWithGradient(o, values, ovhOn, grad, 0);
+                for (int j = 0; j < grad.length; j++) {
+                    limiting[j] += Math.abs(grad[j]);
+                }
+            }
+            double before = dataCost(obs, values, ovhOn);
+            for (Factor f : candidates) {
+                int j = f.ordinal();
+                if (!fitted[j] || f == Factor.LAYER_OVERHEAD || limiting[j] > 0) {
+                    continue;
+                }
+                double held = values[j];
+                values[j] = kept[j];
+                if (Math.abs(dataCost(obs, values, ovhOn) - before) <= 1e-12 * Math.max(1, before)) {
+                    fitted[j] = false;
+                    why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
+                            : "no measured node of this class is limited by compute");
+                } else {
+                    values[j] = held;
+                }
+            }
+        }
+        if (say && !off.isEmpty()) {
+            notes.add("the " + obs.get(0).metric().label + " fit drove " + String.join(", ", off)
+                    + " toward zero in every measured value, which these measurements cannot tell from a model"
+                    + " without that term; " + (off.size() == 1 ? "it keeps" : "they keep")
+                    + " the profile's value and the other factors were fitted again");
+        }
+        if (latencyFit && !fitted[ovh]) {
+            // Not fitted: the profile's overhead applies node by node, as the estimator charges it.
+            values[ovh] = profileOverhead(obs);
+        }
+        return new Fit(values, fitted, why);
     }
 
+    /**
+     * The fit of the factors {@code idx} (docs/calibration.md, "How the fit works"). The roofline's maximum
+     * of compute, SRAM and DRAM time makes the problem piecewise: a factor has no pull on a layer while
+     * another bound hides it, so a fit started at the profile can stall where a slow class of layers looks
+     * memory-bound at the profile's figures. So a latency fit also runs in two stages: first with the
+     * maximum smoothed into a 4-norm, where each bound pulls on its factor in proportion to how close it is
+     * to limiting, then with the true maximum from there. Of the two fits, the one that leaves the smaller
+     * error is kept.
+     */
+    private static double[] passes(List<Obs> obs, int[] idx, double[] start, double[] kept, boolean ovhOn,
+                                   boolean latencyFit) {
+        double[] plain = optimize(obs, idx, start, kept, ovhOn, 0);
+        if (latencyFit) {
+            double[] staged = optimize(obs, idx, optimize(obs, idx, start, kept, ovhOn, SOFT_NORM), kept, ovhOn, 0);
+            if (dataCost(obs, staged, ovhOn) < dataCost(obs, plain, ovhOn)) {
+                return staged;
+            }
+        }
+        return plain;
+    }
+
+    /** The weighted sum of squared log ratios that the factor values leave. */
     private static double dataCost(List<Obs> obs, double[] values, boolean ovh) {
         double[] w = weights(obs);
         double c = 0;
@@ -410,42 +584,19 @@ public final class Calibrator {
         return c;
     }
 
-    /** The sum of squared logarithms of the fitted ratio factors: how far the fit moves the profile. */
-    private static double priorCost(int[] idx, double[] values) {
-        double c = 0;
-        for (int j : idx) {
-            if (anchored(Factor.values()[j])) {
-                double d = Math.log(values[j]);
-                c += d * d;
-            }
-        }
-        return c;
-    }
-
-    /** A ratio factor, held toward 1 by the prior; absolute quantities (overhead, static power) are not. */
-    private static boolean anchored(Factor f) {
-        return !Double.isNaN(f.neutral);
-    }
-
     /**
-     * Fits the factors {@code idx} (as logarithms, so that they stay positive) from {@code start} with the
-     * Levenberg-Marquardt optimiser of Hipparchus, minimising the weighted squared log ratios of predicted to
-     * measured values; {@code soft} as in {@link #predictWithGradient}. Returns all factor values, the
-     * others as {@code start} has them.
+     * Levenberg-Marquardt over the logarithms of the factors {@code idx}, from {@code start}; the others
+     * hold their {@code kept} values. It minimises the weighted squared log ratios of predicted to measured
+     * values; {@code soft} as in {@link #predictWithGradient}.
      */
-    private static double[] levenbergMarquardt(List<Obs> obs, int[] idx, double[] start, boolean ovhOn, double soft,
-                                               double prior) {
+    private static double[] optimize(List<Obs> obs, int[] idx, double[] start, double[] kept, boolean ovhOn,
+                                      double soft) {
         int m = obs.size();
-        double[] target = new double[m + idx.length];
+        double[] target = new double[m];
         for (int i = 0; i < m; i++) {
             target[i] = Math.log(obs.get(i).measured());
         }
-        // One more row per fitted factor: its logarithm, aimed at 0 (the profile as written), weighed by the
-        // prior for a ratio factor and 0 for an absolute one.
-        double[] w = Arrays.copyOf(weights(obs), m + idx.length);
-        for (int j = 0; j < idx.length; j++) {
-            w[m + j] = anchored(Factor.values()[idx[j]]) ? prior : 0;
-        }
+        double[] w = weights(obs);
         double[] theta0 = new double[idx.length];
         for (int j = 0; j < idx.length; j++) {
             theta0[j] = Math.log(start[idx[j]]);
@@ -455,17 +606,13 @@ public final class Calibrator {
                 .target(target)
                 .weight(new DiagonalMatrix(w))
                 .model(point -> {
-                    double[] f = start.clone();
+                    double[] f = kept.clone();
                     for (int j = 0; j < idx.length; j++) {
                         f[idx[j]] = Math.exp(point.getEntry(j));
                     }
-                    double[] val = new double[m + idx.length];
-                    double[][] jac = new double[m + idx.length][idx.length];
+                    double[] val = new double[m];
+                    double[][] jac = new double[m][idx.length];
                     double[] g = new double[f.length];
-                    for (int j = 0; j < idx.length; j++) {
-                        val[m + j] = point.getEntry(j);
-                        jac[m + j][j] = 1;
-                    }
                     for (int i = 0; i < m; i++) {
                         double p = predictWithGradient(obs.get(i), f, ovhOn, g, soft);
                         // A prediction of zero cannot be compared on a log scale: hold it at a tiny time.
@@ -495,132 +642,11 @@ public final class Calibrator {
             throw new BadInputException("cannot calibrate: the " + obs.get(0).metric().label
                     + " fit did not converge on " + obs.size() + " values (" + e.getMessage() + ")");
         }
-        double[] out = start.clone();
+        RealVector theta = opt.getPoint();
+        double[] f = kept.clone();
         for (int j = 0; j < idx.length; j++) {
-            out[idx[j]] = Math.exp(opt.getPoint().getEntry(j));
+            f[idx[j]] = Math.exp(theta.getEntry(j));
         }
-        return out;
-    }
-
-    /**
-     * Chooses which of {@code candidates} the values can set and fits them with Levenberg-Marquardt;
-     * the others keep their start value, with a note saying why.
-     */
-    private static Fit solve(List<Obs> obs, Factor[] candidates, double[] start, boolean overheadFitted,
-                             Map<Factor, String> why, List<String> notes, boolean say) {
-        boolean[] fitted = new boolean[start.length];
-        for (int i = 0; i < start.length; i++) {
-            fitted[i] = false;
-        }
-        int ovh = Factor.LAYER_OVERHEAD.ordinal();
-        boolean latencyFit = candidates == LATENCY;
-        // Sensitivity: how much of the predictions each factor moves, at the start point.
-        double[] share = new double[start.length];
-        double[] grad = new double[start.length];
-        for (Obs o : obs) {
-            double p = predictWithGradient(o, start, latencyFit || overheadFitted, grad, latencyFit ? SOFT_NORM : 0);
-            if (p > 0) {
-                for (int j = 0; j < grad.length; j++) {
-                    share[j] += Math.abs(grad[j]) / p;
-                }
-            }
-        }
-        List<Factor> usable = new ArrayList<>();
-        for (Factor f : candidates) {
-            if (share[f.ordinal()] > 1e-9 * obs.size()) {
-                usable.add(f);
-            } else {
-                why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
-                        : f.name().startsWith("EFFICIENCY") ? "no measured node of this class is limited by compute"
-                        : "no measured value depends on it");
-            }
-        }
-        usable.sort((a, b) -> Double.compare(share[b.ordinal()], share[a.ordinal()]));
-        if (usable.size() > obs.size()) {
-            List<Factor> dropped = usable.subList(obs.size(), usable.size());
-            List<String> keys = new ArrayList<>();
-            for (Factor f : dropped) {
-                keys.add(f.key);
-                why.put(f, "only " + obs.size() + " " + obs.get(0).metric().label + " value"
-                        + (obs.size() == 1 ? "" : "s") + " for " + usable.size() + " factors");
-            }
-            if (say) {
-                notes.add("only " + obs.size() + " " + obs.get(0).metric().label + (obs.size() == 1 ? " value" : " values")
-                        + " for " + usable.size() + " factors: fitted " + String.join(", ", usable.subList(0, obs.size())
-                        .stream().map(f -> f.key).toList()) + "; kept " + String.join(", ", keys) + " as the profile gives");
-            }
-            usable = new ArrayList<>(usable.subList(0, obs.size()));
-        }
-        double[] values = start.clone();
-        if (!usable.isEmpty()) {
-            int[] idx = usable.stream().mapToInt(Factor::ordinal).toArray();
-            boolean ovhOn = latencyFit || overheadFitted;
-            // The estimator's maximum of compute, SRAM and DRAM time makes the fit piecewise: a factor has no
-            // pull on a layer while another bound hides it, so a fit started at the profile can stall where a
-            // slow class of layers looks memory-bound at the profile's figures. So the fit also runs in two
-            // stages: first with the maximum smoothed into a 4-norm, where each bound's share of a layer's
-            // time pulls on its factor, in proportion to how close it is to limiting; then with the true
-            // maximum from there. The stage-free fit and the two-stage one are compared, and the one that
-            // leaves the smaller error is kept.
-            double[] plain = levenbergMarquardt(obs, idx, start, ovhOn, 0, 0);
-            if (latencyFit) {
-                double[] staged = levenbergMarquardt(obs, idx, levenbergMarquardt(obs, idx, start, ovhOn, SOFT_NORM, 0),
-                        ovhOn, 0, 0);
-                if (dataCost(obs, staged, ovhOn) < dataCost(obs, plain, ovhOn)) {
-                    plain = staged;
-                }
-            }
-            // Then the profile's own figures join as a prior: each ratio factor is held toward 1 with a weight
-            // of the fit's residual variance over the prior's (a factor of e either way is one standard
-            // deviation). Values that pin a factor outweigh it, and with exact values it vanishes; where the
-            // values cannot tell two explanations apart (a slow layer that is both compute- and memory-heavy),
-            // it keeps the one that moves the profile least.
-            double dof = Math.max(1, Arrays.stream(weights(obs)).sum() - idx.length);
-            double lambda = dataCost(obs, plain, ovhOn) / dof / (PRIOR_SIGMA * PRIOR_SIGMA);
-            double[] theta = plain;
-            if (lambda > 1e-12) {
-                double[] fromStart = levenbergMarquardt(obs, idx, start, ovhOn, 0, lambda);
-                double[] fromPlain = levenbergMarquardt(obs, idx, plain, ovhOn, 0, lambda);
-                theta = dataCost(obs, fromStart, ovhOn) + lambda * priorCost(idx, fromStart)
-                        <= dataCost(obs, fromPlain, ovhOn) + lambda * priorCost(idx, fromPlain) ? fromStart : fromPlain;
-            }
-            for (int j = 0; j < idx.length; j++) {
-                values[idx[j]] = theta[idx[j]];
-                fitted[idx[j]] = true;
-            }
-            if (latencyFit) {
-                // A bound that limits no measured node at the end moves no prediction: the smoothed stage may
-                // have left its factor anywhere. It goes back to the profile's value (when that leaves every
-                // prediction as it is) and is reported as not fitted.
-                double[] limiting = new double[values.length];
-                for (Obs o : obs) {
-                    predictWithGradient(o, values, ovhOn, grad, 0);
-                    for (int j = 0; j < grad.length; j++) {
-                        limiting[j] += Math.abs(grad[j]);
-                    }
-                }
-                double before = dataCost(obs, values, ovhOn);
-                for (int j : idx) {
-                    Factor f = Factor.values()[j];
-                    if (j == ovh || limiting[j] > 0) {
-                        continue;
-                    }
-                    double kept = values[j];
-                    values[j] = start[j];
-                    if (Math.abs(dataCost(obs, values, ovhOn) - before) <= 1e-12 * Math.max(1, before)) {
-                        fitted[j] = false;
-                        why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
-                                : "no measured node of this class is limited by compute");
-                    } else {
-                        values[j] = kept;
-                    }
-                }
-            }
-        }
-        if (latencyFit && !fitted[ovh]) {
-            // Not fitted: the profile's overhead applies node by node, as the estimator charges it.
-            values[ovh] = profileOverhead(obs);
-        }
-        return new Fit(values, fitted, why);
+        return f;
     }
 }

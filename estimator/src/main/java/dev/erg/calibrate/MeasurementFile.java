@@ -25,7 +25,8 @@ import java.util.TreeSet;
  *
  * <p>Columns: {@code model} (the model's file name, required), {@code node} (an ONNX node name, or
  * empty for the whole model; optional column) and at least one of {@code latency-ms},
- * {@code energy-uj} and {@code power-mw}. An empty cell means "not measured". Other columns are
+ * {@code energy-uj} and {@code power-mw}, or {@code chip-energy-uj} and {@code chip-power-mw} for
+ * figures of the chip alone (DRAM energy not in them). An empty cell means "not measured". Other columns are
  * ignored, with a note. Lines that start with {@code #} are comments (origin, date, tool), and blank
  * lines are skipped. A cell may be quoted with double quotes (a quote inside is doubled). Numbers use
  * a dot for decimals and must be 0 or more; any fault names the file, line and column.
@@ -36,6 +37,12 @@ public final class MeasurementFile {
     public static final String LATENCY_MS = "latency-ms";
     public static final String ENERGY_UJ = "energy-uj";
     public static final String POWER_MW = "power-mw";
+    /** Energy of the chip alone: DRAM energy is not in it. */
+    public static final String CHIP_ENERGY_UJ = "chip-energy-uj";
+    /** Power of the chip alone (its own supply): DRAM power is not in it. */
+    public static final String CHIP_POWER_MW = "chip-power-mw";
+    private static final List<String> MEASURED =
+            List.of(LATENCY_MS, ENERGY_UJ, POWER_MW, CHIP_ENERGY_UJ, CHIP_POWER_MW);
 
     /** Larger files are refused rather than read into memory. */
     static final long MAX_BYTES = 64L << 20;
@@ -146,6 +153,19 @@ public final class MeasurementFile {
             Double lat = number(file, lineNo, LATENCY_MS, columns, cells, 1e-3);
             Double en = number(file, lineNo, ENERGY_UJ, columns, cells, 1e-6);
             Double pw = number(file, lineNo, POWER_MW, columns, cells, 1e-3);
+            Double chipEn = number(file, lineNo, CHIP_ENERGY_UJ, columns, cells, 1e-6);
+            Double chipPw = number(file, lineNo, CHIP_POWER_MW, columns, cells, 1e-3);
+            boolean chip = chipEn != null || chipPw != null;
+            if (chip && (en != null || pw != null)) {
+                throw new BadInputException(file + ":" + lineNo + ": the row gives both "
+                        + (en != null ? ENERGY_UJ : POWER_MW)
+                        + " (DRAM included) and " + (chipEn != null ? CHIP_ENERGY_UJ : CHIP_POWER_MW)
+                        + " (the chip alone); give one of the two kinds per row");
+            }
+            if (chip) {
+                en = chipEn;
+                pw = chipPw;
+            }
             if (lat == null && en == null && pw == null) {
                 throw new BadInputException(file + ":" + lineNo + ": the row gives no value: fill at least one of "
                         + measuredColumns(columns));
@@ -157,7 +177,7 @@ public final class MeasurementFile {
                         : "node '" + node + "' of '" + model + "'") + " was already measured on line " + before
                         + "; give one row per model and node (put repeated runs' median in it)");
             }
-            rows.add(new Measurement(model, node.isEmpty() ? null : node, lineNo, lat, en, pw));
+            rows.add(new Measurement(model, node.isEmpty() ? null : node, lineNo, lat, en, pw, chip));
         }
         if (columns == null) {
             throw new BadInputException(file + ": the measurement file is empty: it needs a header row ("
@@ -175,7 +195,7 @@ public final class MeasurementFile {
         for (int c = 0; c < cells.size(); c++) {
             String name = cells.get(c).strip().toLowerCase(Locale.ROOT);
             switch (name) {
-                case MODEL, NODE, LATENCY_MS, ENERGY_UJ, POWER_MW -> {
+                case MODEL, NODE, LATENCY_MS, ENERGY_UJ, POWER_MW, CHIP_ENERGY_UJ, CHIP_POWER_MW -> {
                     if (columns.put(name, c) != null) {
                         throw new BadInputException(file + ":" + lineNo + ": " + name + ": the column appears twice in the header");
                     }
@@ -187,21 +207,22 @@ public final class MeasurementFile {
             throw new BadInputException(file + ":" + lineNo + ": the header has no '" + MODEL
                     + "' column; the first row must name the columns, e.g. " + MODEL + "," + NODE + "," + LATENCY_MS);
         }
-        if (!columns.containsKey(LATENCY_MS) && !columns.containsKey(ENERGY_UJ) && !columns.containsKey(POWER_MW)) {
+        if (MEASURED.stream().noneMatch(columns::containsKey)) {
             throw new BadInputException(file + ":" + lineNo + ": the header has no measured column: give at least one of "
-                    + LATENCY_MS + ", " + ENERGY_UJ + ", " + POWER_MW);
+                    + LATENCY_MS + ", " + ENERGY_UJ + ", " + POWER_MW + " (or " + CHIP_ENERGY_UJ + ", " + CHIP_POWER_MW
+                    + " for the chip alone)");
         }
         if (!ignored.isEmpty()) {
             notes.add(file + ":" + lineNo + ": ignored " + (ignored.size() == 1 ? "column " : "columns ")
-                    + String.join(", ", ignored) + " (erg reads " + MODEL + ", " + NODE + ", " + LATENCY_MS + ", "
-                    + ENERGY_UJ + ", " + POWER_MW + ")");
+                    + String.join(", ", ignored) + " (erg reads " + MODEL + ", " + NODE + ", "
+                    + String.join(", ", MEASURED) + ")");
         }
         return columns;
     }
 
     private static String measuredColumns(Map<String, Integer> columns) {
         List<String> m = new ArrayList<>();
-        for (String c : List.of(LATENCY_MS, ENERGY_UJ, POWER_MW)) {
+        for (String c : MEASURED) {
             if (columns.containsKey(c)) {
                 m.add(c);
             }

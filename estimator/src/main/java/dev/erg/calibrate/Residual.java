@@ -9,8 +9,15 @@ package dev.erg.calibrate;
  * @param measured the measured value
  * @param before   the prediction with the profile as given
  * @param after    the prediction with the fitted factors
+ * @param chipOnly true for an energy of the chip alone (DRAM energy left out of the measured value and the predictions)
  */
-public record Residual(String model, String node, Factor.Metric metric, double measured, double before, double after) {
+public record Residual(String model, String node, Factor.Metric metric, double measured, double before, double after,
+                       boolean chipOnly) {
+    /** A residual of a latency, or of an energy that includes DRAM. */
+    public Residual(String model, String node, Factor.Metric metric, double measured, double before, double after) {
+        this(model, node, metric, measured, before, after, false);
+    }
+
     /** (before - measured) / measured. */
     public double errorBefore() {
         return before / measured - 1;

@@ -101,21 +101,33 @@ public final class DeviceLoader {
     }
 
     private static DeviceProfile loadPreset(String spec) {
+        // presets pass the schema at build time (DeviceProfileSchemaTest)
+        return parse(ProfileTree.clip(spec), presetBytes(spec), false, false);
+    }
+
+    /**
+     * The text of a built-in preset ({@code preset:ID}) as packaged, comments and sources included.
+     *
+     * @throws BadInputException when there is no such preset
+     */
+    public static String presetText(String spec) {
+        return new String(presetBytes(spec), StandardCharsets.UTF_8);
+    }
+
+    private static byte[] presetBytes(String spec) {
         String id = spec.substring(PRESET_PREFIX.length());
         String label = ProfileTree.clip(spec);
         if (!PRESET_ID.matcher(id).matches() || !presetIds().contains(id)) {
             throw new BadInputException(label + ": no such preset (presets: " + String.join(", ", presetIds()) + ")");
         }
-        byte[] data;
         try (InputStream in = DeviceLoader.class.getClassLoader().getResourceAsStream(PRESET_DIR + id + ".yaml")) {
             if (in == null) {
                 throw new IllegalStateException("preset " + id + " is listed but not packaged");
             }
-            data = in.readNBytes(MAX_FILE_BYTES);
+            return in.readNBytes(MAX_FILE_BYTES);
         } catch (IOException e) {
             throw new BadInputException(label + ": cannot read the preset (" + e.getMessage() + ")");
         }
-        return parse(label, data, false, false); // presets pass the schema at build time (DeviceProfileSchemaTest)
     }
 
     private static byte[] readCapped(String label, Path file) {

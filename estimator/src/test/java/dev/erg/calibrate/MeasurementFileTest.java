@@ -88,7 +88,7 @@ class MeasurementFileTest {
         assertTrue(error("node,latency-ms\na,1\n").endsWith(":1: the header has no 'model' column;"
                 + " the first row must name the columns, e.g. model,node,latency-ms"));
         assertTrue(error("model,node\nm.onnx,a\n").endsWith(":1: the header has no measured column:"
-                + " give at least one of latency-ms, energy-uj, power-mw"));
+                + " give at least one of latency-ms, energy-uj, power-mw (or chip-energy-uj, chip-power-mw for the chip alone)"));
         assertTrue(error("model,latency-ms\n").endsWith(": the measurement file has a header but no rows"));
         assertTrue(error("model,latency-ms,Latency-ms\nm,1,2\n").endsWith(":1: latency-ms: the column appears twice in the header"));
         String missing = assertThrows(BadInputException.class,

@@ -24,13 +24,26 @@ final class AlexNetConv {
     }
 
     static OnnxWriter.Graph graph(long batch) {
-        OnnxWriter.Graph g = new OnnxWriter.Graph("alexnet_conv")
-                .input("image", ElemType.FLOAT, batch, 3, 227, 227)
-                .weight("w1", ElemType.FLOAT, 96, 3, 11, 11).weight("b1", ElemType.FLOAT, 96)
-                .weight("w2", ElemType.FLOAT, 256, 48, 5, 5).weight("b2", ElemType.FLOAT, 256)
-                .weight("w3", ElemType.FLOAT, 384, 256, 3, 3).weight("b3", ElemType.FLOAT, 384)
-                .weight("w4", ElemType.FLOAT, 384, 192, 3, 3).weight("b4", ElemType.FLOAT, 384)
-                .weight("w5", ElemType.FLOAT, 256, 192, 3, 3).weight("b5", ElemType.FLOAT, 256);
+        return graph(batch, false);
+    }
+
+    /**
+     * The same graph; with {@code graphOnly} its weights are external data whose file is not written
+     * (every initializer keeps its dims and type, the payload is absent: a file of a few hundred bytes
+     * that erg analyses like the whole model, since the analysis reads no weights).
+     */
+    static OnnxWriter.Graph graph(long batch, boolean graphOnly) {
+        OnnxWriter.Graph g = new OnnxWriter.Graph("alexnet_conv").input("image", ElemType.FLOAT, batch, 3, 227, 227);
+        long[][] shapes = {{96, 3, 11, 11}, {96}, {256, 48, 5, 5}, {256}, {384, 256, 3, 3}, {384}, {384, 192, 3, 3},
+            {384}, {256, 192, 3, 3}, {256}};
+        long offset = 0;
+        for (int i = 0; i < shapes.length; i++) {
+            String name = (i % 2 == 0 ? "w" : "b") + (i / 2 + 1);
+            OnnxWriter.Tensor t = new OnnxWriter.Tensor(name, ElemType.FLOAT, shapes[i]);
+            long bytes = ElemType.FLOAT.bytes(count(shapes[i]));
+            g.initializer(graphOnly ? t.external("alexnet_conv.weights", offset, bytes) : t.filled());
+            offset += bytes;
+        }
         g.node("Conv", "conv1", List.of("image", "w1", "b1"), List.of("c1"), OnnxWriter.ints("strides", 4, 4));
         g.node("Relu", "relu1", List.of("c1"), List.of("r1"));
         g.node("MaxPool", "pool1", List.of("r1"), List.of("p1"), OnnxWriter.ints("kernel_shape", 3, 3),
@@ -49,5 +62,13 @@ final class AlexNetConv {
                 OnnxWriter.attr("group", 2L));
         g.node("Relu", "relu5", List.of("c5"), List.of("features"));
         return g.output("features", ElemType.FLOAT);
+    }
+
+    private static long count(long[] dims) {
+        long n = 1;
+        for (long d : dims) {
+            n *= d;
+        }
+        return n;
     }
 }
