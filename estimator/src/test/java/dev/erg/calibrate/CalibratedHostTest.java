@@ -5,7 +5,6 @@ import static org.junit.jupiter.api.Assertions.assertEquals;
 import static org.junit.jupiter.api.Assertions.assertNotNull;
 import static org.junit.jupiter.api.Assertions.assertTrue;
 
-import dev.erg.analysis.Analyzer;
 import dev.erg.device.DeviceLoader;
 import dev.erg.device.DeviceProfile;
 import dev.erg.estimate.DeviceEstimate;
@@ -20,9 +19,9 @@ import java.util.LinkedHashMap;
 import java.util.List;
 import java.util.Locale;
 import java.util.Map;
-import org.junit.jupiter.api.BeforeAll;
-import org.junit.jupiter.api.Test;
 import org.junit.jupiter.api.io.TempDir;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
 
 /**
  * The validation of docs/validation.md on the recorded host measurements (nothing is timed here): a
@@ -34,22 +33,21 @@ class CalibratedHostTest {
     /** Chosen before looking at the held-out models: one convolution network of each kind and one transformer. */
     static final List<String> FIT_ON = List.of("mobilenet_v2.graph.onnx", "resnet18.graph.onnx",
             "tiny_transformer.graph.onnx");
-    static MeasurementFile file;
-    static Map<String, ModelWorkload> workloads = new LinkedHashMap<>();
-
-    @BeforeAll
-    static void read() {
-        file = MeasurementFile.read(RecordedHostTest.DIR.resolve("measurements.csv"));
+    /**
+     * {@code host-cpu}: the host quiet, where the target (a median of 25% or less) is asserted;
+     * {@code host-cpu-busy}: 35 minutes later with the host busier, where the calibration must still beat
+     * the profile (measurements/README.md).
+     */
+    @ParameterizedTest
+    @ValueSource(strings = {"host-cpu", "host-cpu-busy"})
+    void calibratedProfilePredictsTheOtherModels(String recording, @TempDir Path dir) throws IOException {
+        Path rec = RecordedHostTest.DIR.resolveSibling(recording);
+        MeasurementFile file = MeasurementFile.read(rec.resolve("measurements.csv"));
+        Map<String, ModelWorkload> workloads = new LinkedHashMap<>();
         for (String m : file.models()) {
-            Path p = Files.exists(RecordedHostTest.MODELS.resolve(m)) ? RecordedHostTest.MODELS.resolve(m)
-                    : RecordedHostTest.MODELS.resolve("demo").resolve(m);
-            workloads.put(m, Analyzer.analyze(p, Map.of()));
+            workloads.put(m, RecordedHostTest.workload(m));
         }
-    }
-
-    @Test
-    void calibratedProfilePredictsTheOtherModels(@TempDir Path dir) throws IOException {
-        Path src = RecordedHostTest.DIR.resolve("host-1thread.yaml");
+        Path src = rec.resolve("host-1thread.yaml");
         DeviceProfile host = DeviceLoader.load(src.toString(), Path.of("."));
         List<ModelCosts> costs = new ArrayList<>();
         for (String m : FIT_ON) {
@@ -74,7 +72,7 @@ class CalibratedHostTest {
 
         List<Double> before = new ArrayList<>();
         List<Double> after = new ArrayList<>();
-        StringBuilder b = new StringBuilder("fitted on " + FIT_ON + "\n");
+        StringBuilder b = new StringBuilder(recording + ": fitted on " + FIT_ON + "\n");
         c.factors().values().forEach(f -> b.append(String.format(Locale.ROOT, "  %s = %.4g%s%n", f.factor().key,
                 f.shown(), f.fitted() ? "" : " (not fitted: " + f.note() + ")")));
         for (Measurement m : file.rows()) {
@@ -97,5 +95,8 @@ class CalibratedHostTest {
         System.out.println(b);
         assertEquals(8, e1.count());
         assertTrue(e1.median() < e0.median(), b.toString());
+        if (recording.equals("host-cpu")) {
+            assertTrue(e1.median() <= 0.25, "the target: a median of 25% or less after calibration\n" + b);
+        }
     }
 }

@@ -13,7 +13,8 @@ import java.util.List;
 import java.util.Locale;
 import java.util.Map;
 import java.util.TreeMap;
-import org.junit.jupiter.api.Test;
+import org.junit.jupiter.params.ParameterizedTest;
+import org.junit.jupiter.params.provider.ValueSource;
 
 /**
  * The host protocol of docs/validation.md with every choice of fit set, not one: for each of the 165 ways
@@ -21,18 +22,23 @@ import org.junit.jupiter.api.Test;
  * calibrated on those 3 and the whole-model latency of the other 8 is predicted and compared with what
  * onnxruntime measured on the host (the recorded file; nothing is timed here). A method fitted to one
  * lucky fit set would show here as a wide spread over the others.
+ *
+ * <p>Two recordings: {@code host-cpu} (the host quiet) and {@code host-cpu-busy} (35 minutes later, the
+ * host busier: some models ran up to 1.9 times slower, unevenly). The target of 25% is asserted on the
+ * quiet one; on the busy one the calibration must still beat the profile.
  */
 class CalibrationCrossValidationTest {
-    @Test
-    void everyChoiceOfThreeFitModelsPredictsTheOthers() {
-        RecordedHostTest.read();
-        MeasurementFile file = RecordedHostTest.file;
-        DeviceProfile host = DeviceLoader.load(RecordedHostTest.DIR.resolve("host-1thread.yaml").toString(), Path.of("."));
+    @ParameterizedTest
+    @ValueSource(strings = {"host-cpu", "host-cpu-busy"})
+    void everyChoiceOfThreeFitModelsPredictsTheOthers(String recording) {
+        Path dir = RecordedHostTest.DIR.resolveSibling(recording);
+        MeasurementFile file = MeasurementFile.read(dir.resolve("measurements.csv"));
+        DeviceProfile host = DeviceLoader.load(dir.resolve("host-1thread.yaml").toString(), Path.of("."));
         List<String> models = file.models();
         Map<String, ModelCosts> costs = new LinkedHashMap<>();
         Map<String, Double> measured = new LinkedHashMap<>();
         for (String m : models) {
-            costs.put(m, ModelCosts.of(m, Estimator.estimate(RecordedHostTest.workloads.get(m), host)));
+            costs.put(m, ModelCosts.of(m, Estimator.estimate(RecordedHostTest.workload(m), host)));
         }
         for (Measurement r : file.rows()) {
             if (r.node() == null) {
@@ -71,7 +77,7 @@ class CalibrationCrossValidationTest {
         }
         medians.sort(null);
         StringBuilder b = new StringBuilder();
-        b.append(String.format(Locale.ROOT, "CROSS-VALIDATION | 165 fit sets of 3 models | median held-out error before"
+        b.append(String.format(Locale.ROOT, "CROSS-VALIDATION " + recording + " | 165 fit sets of 3 models | median held-out error before"
                         + " calibration %.1f%% | after: median of the fit sets' medians %.1f%%, 90th percentile %.1f%%,"
                         + " worst %.1f%%, share of fit sets at 25%% or less %.0f%%%n", 100 * median(before),
                 100 * median(medians), 100 * medians.get((int) Math.round(0.9 * (medians.size() - 1))),
@@ -80,14 +86,16 @@ class CalibrationCrossValidationTest {
         byModel.forEach((m, l) -> {
             List<Double> s = new ArrayList<>(l);
             s.sort(null);
-            b.append(String.format(Locale.ROOT, "CROSS-VALIDATION | %s | held out in %d fit sets | signed error median"
+            b.append(String.format(Locale.ROOT, "CROSS-VALIDATION " + recording + " | %s | held out in %d fit sets | signed error median"
                     + " %+.0f%%, from %+.0f%% to %+.0f%%%n", m, s.size(), 100 * median(s), 100 * s.get(0),
                     100 * s.get(s.size() - 1)));
         });
         System.out.print(b);
-        // The target for one fit set (a median of 25% or less), here held by the typical fit set.
-        assertTrue(median(medians) <= 0.25, b.toString());
         assertTrue(median(medians) < median(before), b.toString());
+        if (recording.equals("host-cpu")) {
+            // The target of a median of 25% or less for one fit set, here held by the typical fit set.
+            assertTrue(median(medians) <= 0.25, b.toString());
+        }
     }
 
     private static void choose(List<String> from, int k, int at, List<String> cur, List<List<String>> out) {

@@ -43,6 +43,14 @@ class RecordedHostTest {
         }
     }
 
+    /** The analysis of a recorded model (the same models in both recordings). */
+    static ModelWorkload workload(String model) {
+        return workloads.computeIfAbsent(model, m -> {
+            Path p = Files.exists(MODELS.resolve(m)) ? MODELS.resolve(m) : MODELS.resolve("demo").resolve(m);
+            return Analyzer.analyze(p, Map.of());
+        });
+    }
+
     @Test
     void everyRecordedNodeIsOneOfErgsNodes() {
         assertEquals(11, workloads.size(), file.models().toString());
