@@ -21,29 +21,7 @@ final class TinyModel {
      * one output {@code y} of {@code outDims}, at opset 13.
      */
     static byte[] binary(String op, long[] aDims, long[] bDims, long[] outDims) {
-        byte[] node = msg(o -> {
-            o.writeString(1, "a");
-            o.writeString(1, "b");
-            o.writeString(2, "y");
-            o.writeString(3, "bench");
-            o.writeString(4, op);
-        });
-        byte[] graph = msg(o -> {
-            o.writeByteArray(1, node);
-            o.writeString(2, "host-bench");
-            o.writeByteArray(11, valueInfo("a", aDims));
-            o.writeByteArray(11, valueInfo("b", bDims));
-            o.writeByteArray(12, valueInfo("y", outDims));
-        });
-        byte[] opset = msg(o -> {
-            o.writeString(1, "");
-            o.writeInt64(2, 13);
-        });
-        return msg(o -> {
-            o.writeInt64(1, 7);
-            o.writeByteArray(7, graph);
-            o.writeByteArray(8, opset);
-        });
+        return model(aDims, bDims, outDims, o -> o.writeByteArray(1, node(op, "a", "b", "y", "bench")));
     }
 
     /**
@@ -54,23 +32,31 @@ final class TinyModel {
      */
     static byte[] addChain(long n, int k) {
         long[] dims = {n};
-        byte[] graph = msg(o -> {
+        return model(dims, dims, dims, o -> {
             for (int i = 1; i <= k; i++) {
-                String in = i == 1 ? "a" : "y" + (i - 1);
-                String out = i == k ? "y" : "y" + i;
-                String name = "add" + i;
-                o.writeByteArray(1, msg(x -> {
-                    x.writeString(1, in);
-                    x.writeString(1, "b");
-                    x.writeString(2, out);
-                    x.writeString(3, name);
-                    x.writeString(4, "Add");
-                }));
+                o.writeByteArray(1, node("Add", i == 1 ? "a" : "y" + (i - 1), "b", i == k ? "y" : "y" + i, "add" + i));
             }
+        });
+    }
+
+    private static byte[] node(String op, String a, String b, String y, String name) {
+        return msg(o -> {
+            o.writeString(1, a);
+            o.writeString(1, b);
+            o.writeString(2, y);
+            o.writeString(3, name);
+            o.writeString(4, op);
+        });
+    }
+
+    /** A model at opset 13 with inputs {@code a}, {@code b} and output {@code y}, whose nodes {@code nodes} writes. */
+    private static byte[] model(long[] aDims, long[] bDims, long[] outDims, Body nodes) {
+        byte[] graph = msg(o -> {
+            nodes.write(o);
             o.writeString(2, "host-bench");
-            o.writeByteArray(11, valueInfo("a", dims));
-            o.writeByteArray(11, valueInfo("b", dims));
-            o.writeByteArray(12, valueInfo("y", dims));
+            o.writeByteArray(11, valueInfo("a", aDims));
+            o.writeByteArray(11, valueInfo("b", bDims));
+            o.writeByteArray(12, valueInfo("y", outDims));
         });
         byte[] opset = msg(o -> {
             o.writeString(1, "");
