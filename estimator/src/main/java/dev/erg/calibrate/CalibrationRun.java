@@ -121,7 +121,7 @@ public final class CalibrationRun {
     public static List<String> summary(Calibration c) {
         List<String> out = new ArrayList<>();
         for (FactorValue f : c.factors().values()) {
-            out.add(String.format(Locale.ROOT, "  %-32s %s", f.factor().key,
+            out.add(String.format(Locale.ROOT, "  %-33s %s", f.factor().key,
                     f.fitted() ? CalibratedProfile.num(f.shown()) + " " + f.factor().unit
                             : "not fitted: " + f.note()));
         }

@@ -40,7 +40,8 @@ import org.hipparchus.util.Pair;
  */
 public final class Calibrator {
     private static final Factor[] LATENCY = {Factor.EFFICIENCY_DENSE_CONV, Factor.EFFICIENCY_GROUPED_CONV,
-        Factor.EFFICIENCY_MATMUL, Factor.EFFICIENCY_VECTOR, Factor.LAYER_OVERHEAD, Factor.DRAM_BANDWIDTH_SCALE};
+        Factor.EFFICIENCY_MATMUL, Factor.EFFICIENCY_MATRIX_VECTOR, Factor.EFFICIENCY_VECTOR, Factor.LAYER_OVERHEAD,
+        Factor.DRAM_BANDWIDTH_SCALE};
     private static final Factor[] ENERGY = {Factor.ENERGY_SCALE_COMPUTE, Factor.ENERGY_SCALE_ON_CHIP,
         Factor.ENERGY_SCALE_DRAM, Factor.STATIC_POWER};
     /** Fitted log-factors stay within e^-60 .. e^60 of 1 (a guard against runaway steps, far outside any real value). */
@@ -534,7 +535,10 @@ public final class Calibrator {
                     why.put(f, f == Factor.DRAM_BANDWIDTH_SCALE ? "no measured node is limited by DRAM"
                             : "no measured node of this class is limited by compute");
                 } else {
-                    values[j] = held;
+                    // The fit lifted every node of the class off this bound, and any value past that point fits
+                    // as well: the smallest such value, where the bound just stops limiting, is what the
+                    // measurements say (a lower limit), rather than wherever the solver stopped.
+                    values[j] = Math.min(held, lowestHidden(obs, values, f, held));
                 }
             }
         }
@@ -570,6 +574,38 @@ public final class Calibrator {
             }
         }
         return plain;
+    }
+
+    /**
+     * The smallest value of the efficiency or bandwidth scale {@code f} at which its bound limits none of the
+     * measured nodes it acts on (the others at {@code values}); {@code fallback} when no node has another
+     * bound to hide behind.
+     */
+    private static double lowestHidden(List<Obs> obs, double[] values, Factor f, double fallback) {
+        double lowest = 0;
+        int bw = Factor.DRAM_BANDWIDTH_SCALE.ordinal();
+        for (Obs o : obs) {
+            for (NodeCost n : o.nodes()) {
+                double raw;
+                double other;
+                if (f == Factor.DRAM_BANDWIDTH_SCALE) {
+                    raw = n.dramSeconds();
+                    other = Math.max(n.computeSeconds() / values[Factor.efficiency(n.opClass()).ordinal()], n.sramSeconds());
+                } else if (Factor.efficiency(n.opClass()) == f) {
+                    raw = n.computeSeconds();
+                    other = Math.max(n.sramSeconds(), n.dramSeconds() / values[bw]);
+                } else {
+                    continue;
+                }
+                if (raw > 0) {
+                    if (!(other > 0)) {
+                        return fallback;
+                    }
+                    lowest = Math.max(lowest, raw / other);
+                }
+            }
+        }
+        return lowest > 0 ? lowest : fallback;
     }
 
     /** The weighted sum of squared log ratios that the factor values leave. */

@@ -14,6 +14,8 @@ public enum Factor {
     EFFICIENCY_GROUPED_CONV("compute-efficiency-grouped-conv", Metric.LATENCY, 1, ""),
     /** Achieved fraction of the peak on MatMul, Gemm and recurrent cells. */
     EFFICIENCY_MATMUL("compute-efficiency-matmul", Metric.LATENCY, 1, ""),
+    /** Achieved fraction of the peak on matrix-vector products (one row per group: M = 1). */
+    EFFICIENCY_MATRIX_VECTOR("compute-efficiency-matrix-vector", Metric.LATENCY, 1, ""),
     /** Achieved fraction of the peak vector rate on nodes without MACs. */
     EFFICIENCY_VECTOR("compute-efficiency-vector", Metric.LATENCY, 1, ""),
     /** Time added per layer launched (scheduling, kernel dispatch); replaces the profile's overhead. */
@@ -51,6 +53,7 @@ public enum Factor {
             case DENSE_CONV -> EFFICIENCY_DENSE_CONV;
             case GROUPED_CONV -> EFFICIENCY_GROUPED_CONV;
             case MATMUL -> EFFICIENCY_MATMUL;
+            case MATRIX_VECTOR -> EFFICIENCY_MATRIX_VECTOR;
             case VECTOR -> EFFICIENCY_VECTOR;
         };
     }

@@ -51,7 +51,7 @@ public record ProfileCalibration(Map<String, Double> factors, Band latency, Band
         return v == null ? otherwise : v;
     }
 
-    /** The compute efficiency of an operator class ({@code dense-conv}, {@code grouped-conv}, {@code matmul}, {@code vector}). */
+    /** The compute efficiency of an operator class ({@code dense-conv}, {@code grouped-conv}, {@code matmul}, {@code matrix-vector}, {@code vector}). */
     public double efficiency(String opClass) {
         return factor("compute-efficiency-" + opClass, 1);
     }

@@ -9,6 +9,13 @@ public enum OpClass {
     GROUPED_CONV("grouped-conv"),
     /** Every other multiply-accumulate node: MatMul, Gemm, Einsum, recurrent cells and their integer forms. */
     MATMUL("matmul"),
+    /**
+     * Multiply-accumulate nodes whose matrix view has one row per group (M = 1): matrix-vector products,
+     * such as a classifier at batch 1 or a convolution over a 1x1 map. Each weight is used once per
+     * frame, so reading the weights limits them rather than arithmetic (matrix-vector against
+     * matrix-matrix work: common practice, no single source); they get an efficiency of their own.
+     */
+    MATRIX_VECTOR("matrix-vector"),
     /** Nodes without MACs that run: elementwise, normalisation, pooling, reductions, data movement. */
     VECTOR("vector");
 
@@ -22,6 +29,9 @@ public enum OpClass {
     public static OpClass of(NodeWork w) {
         if (w.kind() != Kind.MAC) {
             return VECTOR;
+        }
+        if (w.gemmGroups() > 0 && w.gemmM() == 1) {
+            return MATRIX_VECTOR;
         }
         String op = w.opType();
         if (op.startsWith("Conv") || op.equals("QLinearConv")) {

@@ -36,6 +36,7 @@ class CalibratorTest {
         t.put(Factor.EFFICIENCY_DENSE_CONV, 0.42);
         t.put(Factor.EFFICIENCY_GROUPED_CONV, 0.09);
         t.put(Factor.EFFICIENCY_MATMUL, 0.63);
+        t.put(Factor.EFFICIENCY_MATRIX_VECTOR, 0.17);
         t.put(Factor.EFFICIENCY_VECTOR, 0.21);
         t.put(Factor.LAYER_OVERHEAD, 7e-6);
         t.put(Factor.DRAM_BANDWIDTH_SCALE, 0.55);
@@ -158,12 +159,12 @@ class CalibratorTest {
         long fitted = c.factors().values().stream()
                 .filter(v -> v.factor().metric == Factor.Metric.LATENCY && v.fitted()).count();
         assertEquals(3, fitted, "three whole-model latencies set three factors");
-        String note = c.notes().stream().filter(n -> n.startsWith("only 3 latency values for 6 factors")).findFirst()
+        String note = c.notes().stream().filter(n -> n.startsWith("only 3 latency values for 7 factors")).findFirst()
                 .orElseThrow(() -> new AssertionError(c.notes()));
         assertTrue(note.contains("; kept "), note);
         for (FactorValue v : c.factors().values()) {
             if (v.factor().metric == Factor.Metric.LATENCY && !v.fitted()) {
-                assertEquals("only 3 latency values for 6 factors", v.note());
+                assertEquals("only 3 latency values for 7 factors", v.note());
                 assertTrue(note.contains(v.factor().key), v.factor().key);
             }
         }
