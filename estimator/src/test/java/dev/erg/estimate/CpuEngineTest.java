@@ -22,15 +22,6 @@ import org.junit.jupiter.api.Test;
 class CpuEngineTest {
     private static final double EPS = 1e-12;
 
-    private static NodeEstimate only(DeviceEstimate e, String op) {
-        for (NodeEstimate n : e.nodes()) {
-            if (n.work().opType().equals(op)) {
-                return n;
-            }
-        }
-        throw new AssertionError("no " + op);
-    }
-
     /**
      * Worked example 9: x [64, 256] x w [256, 128] in fp32 on preset:host-2core-example (2 cores x 16 fp32
      * MACs per cycle at 2.4 GHz; L1 64 KiB, L2 2 MiB at 64 B/cycle, L3 8 MiB; DRAM 20 GB/s; 2400 cycles per
@@ -41,7 +32,7 @@ class CpuEngineTest {
         ModelWorkload w = Models.analyze(Models.matmul(64, 256, 128));
         DeviceProfile d = DeviceLoader.load("preset:host-2core-example", null);
         DeviceEstimate e = Estimator.estimate(w, d);
-        NodeEstimate m = only(e, "MatMul");
+        NodeEstimate m = Models.only(e, "MatMul");
         assertEquals(2_097_152, m.work().macs());
         assertEquals(65_536, m.computeCycles());            // 2 097 152 / (2 x 16)
         assertEquals(1.0, m.utilization(), EPS);
@@ -111,7 +102,7 @@ class CpuEngineTest {
                 .node("Relu", "relu", List.of("x"), List.of("y"))
                 .output("y", ElemType.FLOAT);
         DeviceEstimate e = Estimator.estimate(Models.analyze(g), DeviceLoader.load("preset:host-2core-example", null));
-        NodeEstimate r = only(e, "Relu");
+        NodeEstimate r = Models.only(e, "Relu");
         assertEquals("cpu", r.engine());
         assertEquals(512, r.computeCycles());
         assertEquals("l2", r.onChipLevel()); // 128 KiB in and out: over the 64 KiB L1
@@ -173,7 +164,7 @@ class CpuEngineTest {
                 .input("x", ElemType.FLOAT, 16, 64)
                 .node("Relu", "relu", List.of("x"), List.of("y"))
                 .output("y", ElemType.FLOAT);
-        NodeEstimate r = only(Estimator.estimate(Models.analyze(g), smallHost()), "Relu");
+        NodeEstimate r = Models.only(Estimator.estimate(Models.analyze(g), smallHost()), "Relu");
         assertEquals(128, r.computeCycles()); // 1024 / 8
         assertEquals(102.4e-15 * 1000, r.energy().compute(), 1e-18);
     }
@@ -187,7 +178,7 @@ class CpuEngineTest {
     void withEnergiesTheSplitIsPriced() {
         DeviceProfile d = smallHost();
         DeviceEstimate e = Estimator.estimate(Models.analyze(Models.matmul(16, 64, 32)), d);
-        NodeEstimate m = only(e, "MatMul");
+        NodeEstimate m = Models.only(e, "MatMul");
         assertTrue(e.energyKnown());
         assertEquals(4096, m.computeCycles());
         assertEquals("l1", m.onChipLevel());

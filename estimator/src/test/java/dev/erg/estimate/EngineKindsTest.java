@@ -17,15 +17,6 @@ import org.junit.jupiter.api.Test;
 class EngineKindsTest {
     private static final double EPS = 1e-12;
 
-    private static NodeEstimate only(DeviceEstimate e, String op) {
-        for (NodeEstimate n : e.nodes()) {
-            if (n.work().opType().equals(op)) {
-                return n;
-            }
-        }
-        throw new AssertionError("no " + op);
-    }
-
     static String macro(int rows, int columns, int macros, int bitsPerCell, String extra) {
         return "  - id: macro\n    kind: in-memory-macro\n    rows: " + rows + "\n    columns: " + columns
                 + "\n    macros: " + macros + "\n    bits-per-cell: " + bitsPerCell + "\n" + extra
@@ -44,7 +35,7 @@ class EngineKindsTest {
     void depthwiseOnA256RowMacroUsesNineOf256() {
         ModelWorkload w = Models.analyze(Models.conv(32, 14, 14, 32, 3, 32));
         DeviceProfile d = Profiles.of(macro(256, 64, 1, 1, "    input-bits-per-cycle: 8\n"));
-        NodeEstimate c = only(Estimator.estimate(w, d), "Conv");
+        NodeEstimate c = Models.only(Estimator.estimate(w, d), "Conv");
         assertEquals(4, c.passes());
         assertEquals(784, c.computeCycles());
         assertEquals(9.0 / 256, c.utilization(), EPS);
@@ -60,7 +51,7 @@ class EngineKindsTest {
     void aReductionOf512On256RowsTakesTwoPasses() {
         ModelWorkload w = Models.analyze(Models.conv(512, 7, 7, 64, 1, 1));
         DeviceProfile d = Profiles.of(macro(256, 512, 2, 1, "    input-bits-per-cycle: 8\n"));
-        NodeEstimate c = only(Estimator.estimate(w, d), "Conv");
+        NodeEstimate c = Models.only(Estimator.estimate(w, d), "Conv");
         assertEquals(2, c.passes());
         assertEquals(49, c.computeCycles());
         assertEquals(1.0, c.utilization(), EPS);
@@ -80,7 +71,7 @@ class EngineKindsTest {
         DeviceProfile d = Profiles.of(macro(128, 64, 2, 2, "    weight-bits: 4\n    rows-active: 64\n"
                 + "    input-bits-per-cycle: 2\n"));
         DeviceEstimate e = Estimator.estimate(w, d);
-        NodeEstimate m = only(e, "MatMul");
+        NodeEstimate m = Models.only(e, "MatMul");
         assertEquals(4, m.deployed().weightBits());
         assertEquals(8, m.deployed().activationBits());
         assertEquals(Origin.PROFILE, m.deployed().weightOrigin());
@@ -121,7 +112,7 @@ class EngineKindsTest {
         DeviceProfile d = Profiles.of(macro(128, 64, 1, 2, "    weight-bits: 4\n    rows-active: 64\n"
                 + "    input-bits-per-cycle: 2\n"));
         DeviceEstimate e = Estimator.estimate(w, d);
-        NodeEstimate m = only(e, "MatMul");
+        NodeEstimate m = Models.only(e, "MatMul");
         assertTrue(e.weightsReloadedEachFrame());
         assertTrue(m.weightsReloaded());
         assertEquals(12_000, m.cellWrites());
@@ -146,7 +137,7 @@ class EngineKindsTest {
         DeviceProfile d = Profiles.of("  - id: analog\n    kind: analog-sum-array\n    rows: 32\n    columns: 4\n"
                 + "    multiply-energy-fj: { int8: 40 }\n    accumulation-energy-fj: 4\n    conversion-energy-fj: 200\n"
                 + "    converter-bits: 8\n    partial-add-energy-fj: 10\n");
-        NodeEstimate m = only(Estimator.estimate(w, d), "MatMul");
+        NodeEstimate m = Models.only(Estimator.estimate(w, d), "MatMul");
         assertEquals(80, m.computeCycles());
         assertEquals(0.78125, m.utilization(), EPS);
         assertEquals(320, m.conversions());
@@ -174,7 +165,7 @@ class EngineKindsTest {
                 + "  - id: mac-array\n    kind: mac-array\n    rows: 8\n    columns: 8\n    dataflow: weight-stationary\n"
                 + "    mac-energy-fj: { int8: 50 }\n    xnor-energy-fj: 0.1\n    popcount-energy-fj: 1\n"
                 + "  - id: vector\n    kind: vector\n    lanes: 16\n    op-energy-fj: { int8: 10 }\n" + Profiles.MEMORIES);
-        NodeEstimate m = only(Estimator.estimate(w, d), "MatMul");
+        NodeEstimate m = Models.only(Estimator.estimate(w, d), "MatMul");
         assertEquals("int1", m.precision());
         assertEquals("w1a1", m.deployed().label());
         assertEquals(8192 * 1.1e-15, m.energy().compute(), 1e-24);

@@ -18,15 +18,6 @@ import org.junit.jupiter.api.Test;
 class EstimatorTest {
     private static final double EPS = 1e-12;
 
-    private static NodeEstimate only(DeviceEstimate e, String op) {
-        for (NodeEstimate n : e.nodes()) {
-            if (n.work().opType().equals(op)) {
-                return n;
-            }
-        }
-        throw new AssertionError("no " + op);
-    }
-
     /**
      * Worked example 1 of docs/method.md: Conv 1x8x10x10 * 16x8x3x3, pads 1, deployed at int8 on an
      * 8x8 weight-stationary array. m = 100 positions, k = 8*3*3 = 72, n = 16.
@@ -36,7 +27,7 @@ class EstimatorTest {
     void workedExampleWeightStationary() {
         ModelWorkload w = Models.analyze(Models.conv(8, 10, 10, 16, 3, 1));
         DeviceEstimate e = Estimator.estimate(w, new TestDevice().build());
-        NodeEstimate c = only(e, "Conv");
+        NodeEstimate c = Models.only(e, "Conv");
         assertEquals(115_200, c.work().macs());
         assertEquals(1800, c.computeCycles());
         assertEquals(1.0, c.utilization(), EPS);
@@ -84,7 +75,7 @@ class EstimatorTest {
         ModelWorkload w = Models.analyze(Models.conv(8, 10, 10, 16, 3, 1));
         TestDevice d = new TestDevice();
         d.dataflow = Dataflow.OUTPUT_STATIONARY;
-        NodeEstimate c = only(Estimator.estimate(w, d.build()), "Conv");
+        NodeEstimate c = Models.only(Estimator.estimate(w, d.build()), "Conv");
         assertEquals(1872, c.computeCycles());
         assertEquals(115_200.0 / (1872 * 64), c.utilization(), EPS);
         assertEquals(29_376, c.sramReadBytes());
@@ -98,14 +89,14 @@ class EstimatorTest {
     void sramTrafficFallsAsTheArrayWidens() {
         ModelWorkload w = Models.analyze(Models.conv(8, 10, 10, 16, 3, 1));
         TestDevice d = new TestDevice();
-        NodeEstimate narrow = only(Estimator.estimate(w, d.build()), "Conv");
+        NodeEstimate narrow = Models.only(Estimator.estimate(w, d.build()), "Conv");
         d.columns = 16;
-        NodeEstimate wide = only(Estimator.estimate(w, d.build()), "Conv");
+        NodeEstimate wide = Models.only(Estimator.estimate(w, d.build()), "Conv");
         // 8 x 16: one column fold, inputs read once: 1152 + 7200 + 51200 = 59552; writes unchanged.
         assertEquals(59_552, wide.sramReadBytes());
         assertEquals(52_800, wide.sramWriteBytes());
         d.rows = 24;
-        NodeEstimate tall = only(Estimator.estimate(w, d.build()), "Conv");
+        NodeEstimate tall = Models.only(Estimator.estimate(w, d.build()), "Conv");
         // 24 x 16: ceil(72/24) = 3 row folds: partial sums 4 * 1600 * 2 = 12800 each way;
         // reads 1152 + 7200 + 12800 = 21152, writes 12800 + 1600 = 14400.
         assertEquals(21_152, tall.sramReadBytes());
@@ -124,7 +115,7 @@ class EstimatorTest {
         TestDevice d = new TestDevice();
         d.rows = 16;
         d.columns = 16;
-        NodeEstimate c = only(Estimator.estimate(w, d.build()), "Conv");
+        NodeEstimate c = Models.only(Estimator.estimate(w, d.build()), "Conv");
         assertEquals(32L * 196 * 9, c.work().macs());
         assertEquals(32L * 196, c.computeCycles());
         assertEquals(9.0 / 256, c.utilization(), EPS);
@@ -145,7 +136,7 @@ class EstimatorTest {
         d.sramRead = 110;
         d.sramWrite = 110;
         d.registers = false;
-        NodeEstimate m = only(Estimator.estimate(w, d.build()), "MatMul");
+        NodeEstimate m = Models.only(Estimator.estimate(w, d.build()), "MatMul");
         long macs = 16L * 32 * 8;
         assertEquals(macs, m.work().macs());
         assertEquals(3 * macs, m.sramReadBytes());
@@ -176,14 +167,14 @@ class EstimatorTest {
         DeviceEstimate f = Estimator.estimate(Models.analyze(fused), new TestDevice().build());
         DeviceEstimate a = Estimator.estimate(Models.analyze(apart), new TestDevice().build());
         long act = 1600; // 1 x 16 x 10 x 10 at int8
-        NodeEstimate fc = only(f, "Conv");
-        NodeEstimate fr = only(f, "Relu");
+        NodeEstimate fc = Models.only(f, "Conv");
+        NodeEstimate fr = Models.only(f, "Relu");
         assertEquals("conv", fr.fusedInto());
         assertEquals(0, fr.sramReadBytes());
         assertEquals(act, fr.sramWriteBytes());
         assertEquals(51_200, fc.sramWriteBytes(), "partial sums only; the activation is written once, by the Relu");
-        NodeEstimate ac = only(a, "Conv");
-        NodeEstimate ar = only(a, "Relu");
+        NodeEstimate ac = Models.only(a, "Conv");
+        NodeEstimate ar = Models.only(a, "Relu");
         assertNull(ar.fusedInto());
         assertEquals(51_200 + act, ac.sramWriteBytes());
         assertEquals(act, ar.sramReadBytes());

@@ -49,4 +49,14 @@ public final class Models {
                 .node("MatMul", "matmul", List.of("x", "w"), List.of("y"))
                 .output("y", ElemType.FLOAT);
     }
+
+    /** The first node of an estimate whose operator is {@code op}. */
+    public static NodeEstimate only(DeviceEstimate e, String op) {
+        for (NodeEstimate n : e.nodes()) {
+            if (n.work().opType().equals(op)) {
+                return n;
+            }
+        }
+        throw new AssertionError("no " + op);
+    }
 }
